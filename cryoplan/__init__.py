@@ -1,0 +1,46 @@
+"""cryoplan: cryogenics planning from material heat capacities, fluid properties and the laws
+of thermodynamics.
+
+The public API (see DEVELOPERS.md). Names are imported lazily so that ``import cryoplan``
+stays fast and does not pull in CoolProp.
+"""
+
+from __future__ import annotations
+
+__version__ = "0.1.0"
+
+__all__ = [
+    "__version__",
+    "material_ids",
+    "material",
+    "cryogen",
+    "liquid_for_cooldown",
+    "minimum_work",
+    "carnot_specific_power",
+    "load_plan",
+    "evaluate",
+]
+
+_LAZY = {
+    "material_ids": "library",
+    "material": "library",
+    "cryogen": "fluids",
+    "liquid_for_cooldown": "cooldown",
+    "minimum_work": "cooldown",
+    "carnot_specific_power": "refrigeration",
+    "load_plan": "plan",
+    "evaluate": "evaluate",
+}
+
+
+def __getattr__(name):
+    if name in _LAZY:
+        import importlib
+
+        module = importlib.import_module(f".{_LAZY[name]}", __name__)
+        return getattr(module, name)
+    raise AttributeError(f"module 'cryoplan' has no attribute {name!r}")
+
+
+def __dir__():
+    return sorted(__all__)

@@ -1,0 +1,1 @@
+"""Command modules of the command line; each defines ``register(subparsers)``."""
