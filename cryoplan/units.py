@@ -29,6 +29,7 @@ DIMENSIONS: dict[str, tuple[str, str]] = {
     "rate": ("1 / [time]", "1/s"),
     "flow": ("[length] ** 3 / [time]", "m**3/s"),
     "current": ("[current]", "A"),
+    "per length": ("1 / [length]", "1/m"),
     "density": ("[mass] / [length] ** 3", "kg/m**3"),
     "specific heat": ("[energy] / [mass] / [temperature]", "J/(kg*K)"),
     "thermal conductance": ("[power] / [temperature]", "W/K"),

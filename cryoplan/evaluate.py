@@ -1,0 +1,373 @@
+"""Plan -> Results: runs every analysis a plan asks for and gathers the figures.
+
+Views (text, Markdown, JSON, PDF, the dashboard) read :meth:`Results.to_dict` and format
+it; they compute no physics.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import math
+from dataclasses import dataclass, field
+from typing import Any
+
+import numpy as np
+
+from . import __version__
+from .cooldown import BAND_NAMES, cumulative_cryogen_mass, state_budget
+from .plan import DEFAULT_TRANSFER_LOSS, DEFAULT_TRANSFER_LOSS_OTHER, Plan
+
+CASES = ("low", "nominal", "high")
+
+METHOD_SOURCES = {
+    "cooldown": "Cryogen for a cooldown, dm = m c dT / (L + f [h_v(T) - h_v(T_b)]): J. W. Ekin, "
+    "Experimental Techniques for Low-Temperature Measurements, Oxford University Press "
+    "(2006), section 1.5; G. K. White and P. J. Meeson, Experimental Techniques in "
+    "Low-Temperature Physics, 4th ed., Oxford University Press (2002), chapter 2.",
+    "work": "Minimum (reversible) work of cooling and of liquefaction, W = T0 dS - dH: "
+    "R. F. Barron, Cryogenic Systems, 2nd ed., Oxford University Press (1985), chapter 3.",
+    "fluids": "Fluid properties: CoolProp (I. H. Bell, J. Wronski, S. Quoilin, V. Lemort, "
+    "Ind. Eng. Chem. Res. 53 (2014) 2498-2508) and the reference equations of state it "
+    "implements.",
+    "transfer": "Transfer losses and dewar heels: defaults are common practice (10-25 % of "
+    "liquid helium, 5-10 % of liquid nitrogen lost per transfer), to be replaced by the "
+    "site's own figures.",
+}
+
+
+@dataclass
+class Results:
+    """Everything the analyses found for one plan; :meth:`to_dict` is the JSON report."""
+
+    plan: Plan
+    data: dict[str, Any] = field(default_factory=dict)
+
+    def to_dict(self) -> dict[str, Any]:
+        return self.data
+
+    @property
+    def summary(self) -> dict[str, Any]:
+        return self.data["summary"]
+
+
+def _transfer_loss(plan: Plan, cryogen: str, override: float | None) -> float:
+    if override is not None:
+        return override
+    supply = plan.supplies.get(cryogen)
+    if supply is not None and supply.transfer_loss is not None:
+        return supply.transfer_loss
+    return DEFAULT_TRANSFER_LOSS.get(cryogen, DEFAULT_TRANSFER_LOSS_OTHER)
+
+
+def choose_dewars(needed_L: float, sizes_L: list[float], heel_L: float) -> list[tuple[float, int]]:
+    """Whole dewars of the given sizes whose usable liquid (size - heel) covers ``needed_L``,
+    with the least liquid ordered (then the fewest dewars).
+
+    >>> choose_dewars(230.0, [100.0, 250.0], 10.0)
+    [(250.0, 1)]
+    >>> choose_dewars(300.0, [100.0, 250.0], 10.0)
+    [(100.0, 1), (250.0, 1)]
+    """
+    sizes = sorted(s for s in sizes_L if s - heel_L > 0)
+    if needed_L <= 0 or not sizes:
+        return []
+    need = int(math.ceil(needed_L - 1e-9))
+    usable = [max(1, int(math.floor(s - heel_L))) for s in sizes]
+    inf = (math.inf, math.inf)
+    best: list[tuple[float, float]] = [(0.0, 0.0)] + [inf] * need
+    choice = [-1] * (need + 1)
+    for x in range(1, need + 1):
+        for k, (s, u) in enumerate(zip(sizes, usable)):
+            prev = best[max(0, x - u)]
+            cand = (prev[0] + s, prev[1] + 1)
+            if cand < best[x]:
+                best[x], choice[x] = cand, k
+    counts = [0] * len(sizes)
+    x = need
+    while x > 0:
+        k = choice[x]
+        counts[k] += 1
+        x = max(0, x - usable[k])
+    return [(s, n) for s, n in zip(sizes, counts) if n]
+
+
+def _cooldown_steps(plan: Plan, case: str) -> tuple[list[dict], dict[str, float], list]:
+    """Litres per step for one case, the cumulative curves, and the parts' final temperatures."""
+    from .fluids import cryogen
+    from .library import material
+
+    factor = {"low": 1 - plan.mass_margin, "nominal": 1.0, "high": 1 + plan.mass_margin}[case]
+    temps = {(s.name, i): (p.start if p.start is not None else plan.cooldown.start)
+             for s in plan.stages for i, p in enumerate(s.parts)}
+    steps_out = []
+    per_cryogen: dict[str, float] = {}
+    curves = []
+    for n, step in enumerate(plan.cooldown.steps):
+        fluid = cryogen(step.cryogen, pressure=step.pressure)
+        gas_use = {"low": step.gas_use_high, "nominal": step.gas_use,
+                   "high": step.gas_use_low}[case]
+        tb = fluid.boiling_point
+        vap = (lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)))
+        kg_total = 0.0
+        cooled = []
+        curve_T, curve_m = [], []
+        for s in plan.stages:
+            target = max(step.to, s.temperature)
+            for i, p in enumerate(s.parts):
+                t_now = temps[(s.name, i)]
+                if t_now <= target + 1e-9:
+                    continue
+                m = material(p.material)
+                T, cum = cumulative_cryogen_mass(m.specific_heat, p.mass * factor, t_now,
+                                                 target, fluid.latent_heat, vap, gas_use)
+                kg_total += float(cum[-1])
+                curve_T.append(T)
+                curve_m.append(cum)
+                cooled.append({"stage": s.name, "part": p.name, "from_K": t_now,
+                               "to_K": target,
+                               "liquid_L": float(cum[-1]) / fluid.liquid_density * 1000})
+                temps[(s.name, i)] = target
+        litres = kg_total / fluid.liquid_density * 1000.0
+        per_cryogen[step.cryogen] = per_cryogen.get(step.cryogen, 0.0) + litres
+        steps_out.append({
+            "step": n + 1, "cryogen": step.cryogen, "to_K": step.to,
+            "written_to_K": step.written_to, "pressure_Pa": step.pressure,
+            "boiling_point_K": tb, "gas_use": gas_use, "liquid_L": litres, "parts": cooled,
+            "note": step.note,
+        })
+        if case == "nominal" and curve_T:
+            grid = np.linspace(max(T[0] for T in curve_T), step.to, 40)
+            total = np.zeros_like(grid)
+            for T, cum in zip(curve_T, curve_m):
+                # T runs warm -> cold; interpolate on ascending axes
+                total += np.interp(-grid, -T, cum, left=0.0, right=float(cum[-1]))
+            curves.append({"step": n + 1, "cryogen": step.cryogen,
+                           "temperature_K": grid.tolist(),
+                           "liquid_L": (total / fluid.liquid_density * 1000).tolist()})
+    return steps_out, per_cryogen, curves
+
+
+def _insert_litres(plan: Plan, factor: float) -> dict[str, float]:
+    from .cooldown import cryogen_mass_for_cooldown
+    from .fluids import cryogen
+    from .library import material
+
+    out: dict[str, float] = {}
+    for ins in plan.inserts:
+        fluid = cryogen(ins.into)
+        tb = fluid.boiling_point
+        m = material(ins.material)
+        kg = cryogen_mass_for_cooldown(
+            m.specific_heat, ins.mass * factor, ins.start, tb, fluid.latent_heat,
+            lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)), ins.gas_use)
+        out[ins.into] = out.get(ins.into, 0.0) + kg / fluid.liquid_density * 1000 * ins.times
+    return out
+
+
+def _order(plan: Plan, cooldown_L: dict[str, float], inserts_L: dict[str, float],
+           steps: list[dict]) -> dict[str, dict]:
+    """What to order per cryogen: cooldown + bath fill + inserts + transfer losses + heels."""
+    cryogens = set(cooldown_L) | set(inserts_L) | {b.cryogen for b in plan.baths}
+    order = {}
+    for cry in sorted(cryogens):
+        transferred = 0.0
+        delivered = 0.0
+        for step, s in zip(plan.cooldown.steps, steps):
+            if step.cryogen == cry:
+                loss = _transfer_loss(plan, cry, step.transfer_loss)
+                delivered += s["liquid_L"]
+                transferred += s["liquid_L"] / (1 - loss)
+        fill = 0.0
+        for bath in plan.baths:
+            if bath.cryogen == cry:
+                loss = _transfer_loss(plan, cry, bath.transfer_loss)
+                fill += bath.volume * 1000
+                transferred += bath.volume * 1000 / (1 - loss)
+        ins = inserts_L.get(cry, 0.0)
+        transferred += ins / (1 - _transfer_loss(plan, cry, None))
+        delivered += fill + ins
+        supply = plan.supplies.get(cry)
+        heel = supply.heel * 1000 if supply else 0.0
+        dewars = choose_dewars(transferred, [d * 1000 for d in supply.dewars], heel) if (
+            supply and supply.dewars) else []
+        n_dewars = sum(n for _, n in dewars)
+        ordered = sum(s * n for s, n in dewars) if dewars else transferred + heel * 0
+        price = supply.price if supply and supply.price is not None else None
+        entry = {
+            "cooldown_L": cooldown_L.get(cry, 0.0),
+            "bath_fill_L": fill,
+            "inserts_L": ins,
+            "transfer_loss_L": transferred - delivered,
+            "needed_L": transferred,
+            "heel_L": heel * n_dewars,
+            "dewars": [{"size_L": s, "count": n} for s, n in dewars],
+            "order_L": ordered,
+            "spare_L": ordered - transferred - heel * n_dewars if dewars else 0.0,
+            "cost": None if price is None else ordered / 1000 * price,
+            "currency": supply.currency if supply else "",
+        }
+        order[cry] = entry
+    return order
+
+
+def _liquefaction(plan: Plan, order: dict[str, dict]) -> dict[str, dict]:
+    from .fluids import cryogen
+
+    out = {}
+    for cry, entry in order.items():
+        fluid = cryogen(cry)
+        kg = entry["order_L"] / 1000 * fluid.liquid_density
+        ideal = fluid.ideal_liquefaction_work(plan.ambient) * kg
+        supply = plan.supplies.get(cry)
+        real = None
+        if supply and supply.liquefier_energy is not None:
+            real = supply.liquefier_energy * entry["order_L"] / 1000
+        out[cry] = {"ideal_J": ideal, "ideal_kWh": ideal / 3.6e6,
+                    "real_J": real, "real_kWh": None if real is None else real / 3.6e6,
+                    "percent_of_ideal": None if not real else 100 * ideal / real}
+    return out
+
+
+def _budget(plan: Plan) -> dict[str, Any]:
+    from .library import material
+
+    parts, stages = [], []
+    total = {k: np.zeros(len(BAND_NAMES)) for k in ("heat", "entropy", "work")}
+    for s in plan.stages:
+        st = {k: np.zeros(len(BAND_NAMES)) for k in ("heat", "entropy", "work")}
+        for p in s.parts:
+            m = material(p.material)
+            start = p.start if p.start is not None else plan.cooldown.start
+            b = state_budget(m.enthalpy, m.entropy, p.mass, start, s.temperature, plan.ambient)
+            for k in st:
+                st[k] += b[k]
+                total[k] += b[k]
+            parts.append({"stage": s.name, "part": p.name, "material": m.id,
+                          "material_name": m.name, "mass_kg": p.mass, "start_K": start,
+                          "end_K": s.temperature,
+                          "heat_J": b["heat"].tolist(), "entropy_J_per_K": b["entropy"].tolist(),
+                          "work_J": b["work"].tolist()})
+        stages.append({"stage": s.name, "temperature_K": s.temperature,
+                       "mass_kg": sum(p.mass for p in s.parts),
+                       "heat_J": st["heat"].tolist(), "entropy_J_per_K": st["entropy"].tolist(),
+                       "work_J": st["work"].tolist()})
+    return {"bands": list(BAND_NAMES), "parts": parts, "stages": stages,
+            "total": {"heat_J": total["heat"].tolist(),
+                      "entropy_J_per_K": total["entropy"].tolist(),
+                      "work_J": total["work"].tolist()}}
+
+
+def evaluate(plan: Plan) -> Results:
+    """Run every analysis the plan asks for.
+
+    Parameters
+    ----------
+    plan : Plan
+        From :func:`cryoplan.load_plan`.
+
+    Returns
+    -------
+    Results
+        ``results.to_dict()`` starts with the ``summary`` object of DESIGN.md.
+    """
+    from .library import material
+
+    data: dict[str, Any] = {"summary": {}}
+    data["plan"] = {
+        "title": plan.title, "file": plan.path, "ambient_K": plan.ambient,
+        "cooldown_start_K": plan.cooldown.start, "mass_margin": plan.mass_margin,
+        "cryoplan_version": __version__, "date": _dt.date.today().isoformat(),
+    }
+    data["cold_mass"] = [
+        {"stage": s.name, "temperature_K": s.temperature,
+         "parts": [{"name": p.name, "material": p.material,
+                    "material_name": material(p.material).name, "mass_kg": p.mass,
+                    "start_K": p.start if p.start is not None else plan.cooldown.start}
+                   for p in s.parts]}
+        for s in plan.stages
+    ]
+    data["budget"] = _budget(plan)
+
+    cases = {}
+    for case in CASES:
+        steps, per_cryogen, curves = _cooldown_steps(plan, case)
+        factor = {"low": 1 - plan.mass_margin, "nominal": 1.0, "high": 1 + plan.mass_margin}[case]
+        inserts = _insert_litres(plan, factor)
+        cases[case] = {"steps": steps, "cooldown_L": per_cryogen,
+                       "order": _order(plan, per_cryogen, inserts, steps)}
+        if case == "nominal":
+            data["cumulative_liquid"] = curves
+            data["inserts"] = [{"name": i.name, "material": i.material, "mass_kg": i.mass,
+                                "into": i.into, "times": i.times} for i in plan.inserts]
+    data["steps"] = cases["nominal"]["steps"]
+    data["order"] = {
+        cry: {**entry, "range": {c: {"order_L": cases[c]["order"].get(cry, {}).get("order_L"),
+                                     "needed_L": cases[c]["order"].get(cry, {}).get("needed_L"),
+                                     "cost": cases[c]["order"].get(cry, {}).get("cost")}
+                                 for c in CASES}}
+        for cry, entry in cases["nominal"]["order"].items()
+    }
+    data["steps_range"] = [
+        {"step": s["step"], **{c: cases[c]["steps"][i]["liquid_L"] for c in CASES}}
+        for i, s in enumerate(cases["nominal"]["steps"])
+    ]
+    data["liquefaction"] = _liquefaction(plan, data["order"])
+    total_work = float(sum(data["budget"]["total"]["work_J"]))
+
+    summary = data["summary"]
+    summary["cooldown_liquid_L"] = {c: v for c, v in cases["nominal"]["cooldown_L"].items()}
+    summary["order_L"] = {c: e["order_L"] for c, e in data["order"].items()}
+    summary["static_boiloff_L_per_day"] = {}
+    summary["hold_time_h"] = {}
+    summary["minimum_work_J"] = total_work
+    summary["cooldown_time_h"] = None
+    summary["lowest_oxygen_percent"] = None
+    summary["cost"] = {c: e["cost"] for c, e in data["order"].items() if e["cost"] is not None}
+    summary["currency"] = next((e["currency"] for e in data["order"].values() if e["currency"]),
+                               "")
+    summary["heat_J"] = float(sum(data["budget"]["total"]["heat_J"]))
+
+    for hook in _ANALYSES:
+        hook(plan, data)
+
+    sources = list(METHOD_SOURCES.values())
+    for s in plan.stages:
+        for p in s.parts:
+            for src in material(p.material).sources:
+                if src not in sources:
+                    sources.append(src)
+    for ins in plan.inserts:
+        for src in material(ins.material).sources:
+            if src not in sources:
+                sources.append(src)
+    data.setdefault("sources", [])
+    data["sources"] = sources + [s for s in data["sources"] if s not in sources]
+    data["notes"] = list(plan.notes) + data.get("notes", [])
+    data["assumptions"] = _assumptions(plan) + data.get("assumptions", [])
+    return Results(plan, data)
+
+
+def _assumptions(plan: Plan) -> list[str]:
+    out = [
+        f"Heat is rejected at the ambient, {plan.ambient:g} K, for the minimum work.",
+        "Each cooldown step cools every part warmer than the step's end, down to the higher "
+        "of that end and the part's stage temperature.",
+        "gas_use is the fraction of the cold boil-off gas's enthalpy that cools the parts "
+        "(0: latent heat only; 1: the gas leaves at the parts' temperature).",
+        "Litres are liquid at the cryogen's boiling point at the step's or bath's pressure.",
+    ]
+    if plan.mass_margin:
+        out.append(f"Masses carry a margin of +/-{plan.mass_margin * 100:g} % in the low and "
+                   "high cases.")
+    used = sorted({s.cryogen for s in plan.cooldown.steps} | {b.cryogen for b in plan.baths})
+    for cry in used:
+        supply = plan.supplies.get(cry)
+        if supply is None or supply.transfer_loss is None:
+            loss = DEFAULT_TRANSFER_LOSS.get(cry, DEFAULT_TRANSFER_LOSS_OTHER)
+            out.append(f"Transfer loss of {cry}: {loss * 100:g} % of what is transferred "
+                       "(common practice; set transfer_loss in [[supply]] for your site).")
+    return out
+
+
+#: Further analyses (loads, refrigeration, rooms) register here: fn(plan, data) -> None.
+_ANALYSES: list = []
