@@ -163,6 +163,9 @@ class Room:
     temperature: float  # K
     vessels: list[Vessel]
     include_baths: bool
+    quench: bool = False  # the cryostat's helium bath may quench (a magnet)
+    quench_time: float = 30.0  # s
+    quench_fraction: float = 1.0
     key: str = ""
     line: int | None = None
 
@@ -227,7 +230,10 @@ LOAD_COMMON = {"stage", "kind", "name"}
 COOLER_KEYS = {"input_power", "percent_carnot", "stage", "link", "max_time"}
 COOLER_STAGE_KEYS = {"stage", "capacity", "map"}
 LINK_KEYS = {"between", "conductance", "material", "area", "length", "count"}
-ROOM_KEYS = {"name", "volume", "ventilation", "alarm", "temperature", "vessel", "include_baths"}
+ROOM_KEYS = {
+    "name", "volume", "ventilation", "alarm", "temperature", "vessel", "include_baths",
+    "quench", "quench_time", "quench_fraction",
+}
 VESSEL_KEYS = {
     "name", "cryogen", "liquid", "boiloff", "failure_release", "quench", "quench_time",
     "quench_fraction",
@@ -999,9 +1005,12 @@ def _rooms(reader: _Reader, raw) -> list[Room]:
                 vessels.append(Vessel(vname, cry, liquid, boiloff, fail, quench, qt or 30.0,
                                       qf, vkey, reader.lines.line_of(vkey)))
         include = bool(rraw.get("include_baths", i == 0))
+        quench = bool(rraw.get("quench", False))
+        qt = reader.quantity(rraw, "quench_time", key, "time", default=30.0, positive=True)
+        qf = reader.fraction(rraw, "quench_fraction", key, 1.0)
         if volume is not None:
             rooms.append(Room(name, volume, vent, alarm, temperature or 293.15, vessels,
-                              include, key, reader.lines.line_of(key)))
+                              include, quench, qt or 30.0, qf, key, reader.lines.line_of(key)))
     return rooms
 
 
