@@ -138,6 +138,11 @@ def coolprop_version() -> str:
     ------
     CryoplanError
         CoolProp is not installed.
+
+    Examples
+    --------
+    >>> coolprop_version() >= "6"
+    True
     """
     if not _VERSION:
         from importlib.metadata import PackageNotFoundError, version
@@ -157,6 +162,11 @@ def cache_dir() -> Path:
 
     ``$CRYOPLAN_CACHE_DIR/fluids/coolprop-VERSION`` when that variable is set, otherwise
     under ``platformdirs.user_cache_dir("cryoplan")``.
+
+    Examples
+    --------
+    >>> cache_dir().name == "coolprop-" + coolprop_version()
+    True
     """
     root = os.environ.get("CRYOPLAN_CACHE_DIR")
     if not root:
@@ -168,7 +178,9 @@ def cache_dir() -> Path:
 
 def _normal_pressure(pressure) -> float:
     """The pressure as a float rounded to 6 significant figures (the cache key)."""
-    if isinstance(pressure, bool) or not isinstance(pressure, (int, float, np.floating)):
+    if isinstance(pressure, bool) or not isinstance(
+        pressure, (int, float, np.integer, np.floating)
+    ):
         raise InputError(
             "a pressure must be a number in pascals",
             expected="a pressure in Pa, such as 101325.0",
@@ -296,6 +308,12 @@ class Cryogen:
         -------
         float or ndarray
             Specific enthalpy, [J/kg].
+
+        Examples
+        --------
+        >>> c = cryogen("argon")
+        >>> c.gas_enthalpy(300.0) - c.gas_enthalpy(c.boiling_point) == c.vapor_enthalpy(300.0)
+        True
         """
         return _same_shape(
             temperature,
@@ -316,6 +334,12 @@ class Cryogen:
         -------
         float or ndarray
             Specific entropy, [J/(kg K)].
+
+        Examples
+        --------
+        >>> c = cryogen("argon")
+        >>> c.gas_entropy(c.boiling_point) == c.saturated_vapor_entropy
+        True
         """
         return _same_shape(
             temperature,
@@ -485,7 +509,7 @@ class Cryogen:
         References
         ----------
         .. [1] R. F. Barron, Cryogenic Systems, 2nd ed., Oxford University Press (1985),
-           sec. 3.1.
+           ch. 3.
 
         Examples
         --------
@@ -699,6 +723,11 @@ def warm_cache(
     -------
     list of Cryogen
         The cryogens built or loaded, in order.
+
+    Examples
+    --------
+    >>> [(c.name, c.pressure) for c in warm_cache([200e3], names=["nitrogen"])]
+    [('nitrogen', 101325.0), ('nitrogen', 200000.0)]
     """
     strict = names is not None
     chosen = [canonical_name(n) for n in names] if strict else cryogen_names()
@@ -721,6 +750,10 @@ def clear_cache(files: bool = True) -> None:
     """Forget the tables loaded in this process and, with ``files``, delete the cache files.
 
     Only the ``fluids`` directory of the cache is removed (all CoolProp versions).
+
+    Examples
+    --------
+    >>> clear_cache(files=False)   # the next cryogen() reads the files again
     """
     _MEMO.clear()
     if files:
