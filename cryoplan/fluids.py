@@ -121,14 +121,17 @@ def canonical_name(name: str) -> str:
     >>> canonical_name("LN2"), canonical_name("He")
     ('nitrogen', 'helium')
     """
+    expected = "one of " + ", ".join(cryogen_names())
     if not isinstance(name, str):
-        raise UnknownNameError("cryogen", repr(name), cryogen_names())
+        raise UnknownNameError(
+            "cryogen", repr(name), cryogen_names(), expected=expected, found=repr(name)
+        )
     key = name.strip().lower().replace("_", "-").replace(" ", "-")
     if key in _COOLPROP_NAMES:
         return key
     if key in _ALIASES:
         return _ALIASES[key]
-    raise UnknownNameError("cryogen", name, cryogen_names())
+    raise UnknownNameError("cryogen", name, cryogen_names(), expected=expected, found=repr(name))
 
 
 def coolprop_version() -> str:

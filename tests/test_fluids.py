@@ -381,6 +381,7 @@ def test_unknown_cryogen_suggests_close_names():
     with pytest.raises(UnknownNameError) as err:
         fluids.cryogen("helum")
     assert err.value.suggestions[0] == "helium"
+    assert "oxygen" in err.value.expected and err.value.found == "'helum'"
     with pytest.raises(UnknownNameError) as err:
         fluids.cryogen("nitrogn")
     assert "nitrogen" in str(err.value)
