@@ -15,7 +15,7 @@ import numpy as np
 
 from . import __version__
 from .cooldown import BAND_NAMES, cumulative_cryogen_mass, state_budget
-from .plan import DEFAULT_TRANSFER_LOSS, DEFAULT_TRANSFER_LOSS_OTHER, Plan
+from .plan import BOILING_POINT_SNAP_K, DEFAULT_TRANSFER_LOSS, DEFAULT_TRANSFER_LOSS_OTHER, Plan
 
 CASES = ("low", "nominal", "high")
 
@@ -115,7 +115,9 @@ def _cooldown_steps(plan: Plan, case: str) -> tuple[list[dict], dict[str, float]
             target = max(step.to, s.temperature)
             for i, p in enumerate(s.parts):
                 t_now = temps[(s.name, i)]
-                if t_now <= target + 1e-9:
+                if t_now <= target + BOILING_POINT_SNAP_K:
+                    # already there: a 77 K stage after a nitrogen step that ended at the
+                    # boiling point, 77.35 K
                     continue
                 m = material(p.material)
                 T, cum = cumulative_cryogen_mass(m.specific_heat, p.mass * factor, t_now,
@@ -327,8 +329,17 @@ def evaluate(plan: Plan) -> Results:
                                "")
     summary["heat_J"] = float(sum(data["budget"]["total"]["heat_J"]))
 
-    for hook in _ANALYSES:
-        hook(plan, data)
+    import importlib
+
+    for name in _ANALYSES:
+        module, _, func = name.partition(":")
+        try:
+            mod = importlib.import_module(f".{module}", __package__)
+        except ModuleNotFoundError as exc:
+            if exc.name and exc.name.endswith(module):
+                continue  # an analysis not in this build
+            raise
+        getattr(mod, func)(plan, data)
 
     sources = list(METHOD_SOURCES.values())
     for s in plan.stages:
@@ -369,5 +380,10 @@ def _assumptions(plan: Plan) -> list[str]:
     return out
 
 
-#: Further analyses (loads, refrigeration, rooms) register here: fn(plan, data) -> None.
-_ANALYSES: list = []
+#: Further analyses, run in this order: "module:function", function(plan, data) -> None.
+#: Loads come first: the room checks use the baths' static boil-off.
+_ANALYSES: list[str] = [
+    "eval_loads:analyse_loads",
+    "eval_cooler:analyse_cooler",
+    "eval_rooms:analyse_rooms",
+]

@@ -61,10 +61,15 @@ def _budget(data: dict) -> list:
                             name=f"budget_{key}"))
     total_h = sum(b["total"]["heat_J"]) or 1.0
     total_w = sum(b["total"]["work_J"]) or 1.0
-    above = b["total"]["heat_J"][0] / total_h * 100
-    below20 = (b["total"]["work_J"][2] + b["total"]["work_J"][3]) / total_w * 100
-    blocks.append(Paragraph(f"{above:.0f} % of the heat leaves above 77 K; {below20:.0f} % of "
-                            "the minimum work is spent below 20 K."))
+    heat, work = b["total"]["heat_J"], b["total"]["work_J"]
+    shares = []
+    for name, h, w in zip(bands, heat, work):
+        if h > 0:
+            shares.append(f"{name}: {h / total_h * 100:.1f} % of the heat, "
+                          f"{w / total_w * 100:.1f} % of the work, {w / h:.2g} J of work per "
+                          "J of heat")
+    blocks.append(Paragraph("By band: " + "; ".join(shares) + ". The colder the band, the "
+                            "dearer each joule (T0/T - 1 per joule at T)."))
     return blocks
 
 
@@ -74,7 +79,7 @@ def _steps(data: dict) -> list:
                 Paragraph("No cryogen steps: a cooler does the cooling (see Refrigeration).")]
     rows = []
     for s, r in zip(data["steps"], data["steps_range"]):
-        rows.append([str(s["step"]), s["cryogen"], f"{s['to_K']:.3g}", f"{s['gas_use']:g}",
+        rows.append([str(s["step"]), s["cryogen"], f"{s['to_K']:.4g}", f"{s['gas_use']:g}",
                      litres(r["low"]), litres(r["nominal"]), litres(r["high"])])
     blocks = [Heading("Cooldown steps"),
               Table(["Step", "Cryogen", "To [K]", "gas_use", "Low [L]", "Nominal [L]",

@@ -69,16 +69,24 @@ def sig(value, digits: int = 3) -> str:
 
 
 def energy(joules) -> str:
-    """>>> energy(1.5e6), energy(2300.0), energy(12.0)
-    ('1.50 MJ', '2.30 kJ', '12.0 J')
+    """>>> energy(1.5e6), energy(2300.0), energy(12.0), energy(210e3)
+    ('1.50 MJ', '2.30 kJ', '12.0 J', '210 kJ')
     """
     if joules is None:
         return "-"
     j = float(joules)
+    if j == 0:
+        return "-"
     for scale, unit in ((1e9, "GJ"), (1e6, "MJ"), (1e3, "kJ")):
         if abs(j) >= scale:
-            return f"{j / scale:.3g} {unit}".replace(f"{j / scale:.3g}", f"{j / scale:#.3g}")
-    return f"{j:#.3g} J"
+            return f"{_three(j / scale)} {unit}"
+    return f"{_three(j)} J"
+
+
+def _three(x: float) -> str:
+    """Three significant figures, keeping trailing zeros but no bare trailing point."""
+    text = f"{x:#.3g}"
+    return text[:-1] if text.endswith(".") else text
 
 
 def litres(value) -> str:
