@@ -29,7 +29,7 @@ _LAZY = {
     "minimum_work": "cooldown",
     "carnot_specific_power": "refrigeration",
     "load_plan": "plan",
-    "evaluate": "evaluate",
+    "evaluate": "evaluation",
 }
 
 

@@ -93,6 +93,10 @@ class UnknownNameError(InputError, KeyError):
         close = closest(name, known)
         hint = f"; did you mean {', '.join(repr(c) for c in close)}?" if close else ""
         self.suggestions = close
+        where.setdefault("found", repr(name))
+        if "expected" not in where:
+            shown = ", ".join(known[:8]) + (", ..." if len(known) > 8 else "")
+            where["expected"] = f"a known {kind} ({shown})" if known else f"a known {kind}"
         super().__init__(f"unknown {kind} {name!r}{hint}", **where)
 
     __str__ = InputError.__str__

@@ -1,6 +1,6 @@
 """Room oxygen checks of a plan: the cases of every room, run through :mod:`cryoplan.safety`.
 
-An evaluation hook (see :mod:`cryoplan.evaluate`): reads the plan, writes ``data["rooms"]``
+An evaluation hook (see :mod:`cryoplan.evaluation`): reads the plan, writes ``data["rooms"]``
 and the summary's ``lowest_oxygen_percent``. The physics is in :mod:`cryoplan.safety`.
 """
 

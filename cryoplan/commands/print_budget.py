@@ -62,7 +62,7 @@ def write_atomic(path: str, payload: bytes) -> None:
 
 
 def run(args) -> int:
-    from ..evaluate import evaluate
+    from ..evaluation import evaluate
     from ..plan import load_plan
     from ..report import render
 
