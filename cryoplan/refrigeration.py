@@ -68,7 +68,18 @@ class CoolingShortfallError(InputError):
 
     The stage never gets cold. ``shortfall`` is the smallest amount [W] by which the
     capacity falls short of the load over the range, and ``temperature`` [K] where it is
-    smallest; ``stage`` names the stage.
+    smallest; ``stage`` names the stage. A subclass of
+    :class:`~cryoplan.errors.InputError`: the command line shows it and exits with code 2;
+    the caller may set ``file``, ``line`` and ``key``.
+
+    Examples
+    --------
+    >>> curve = CapacityCurve([[4.2, 1.5], [10, 5], [300, 5]])
+    >>> try:
+    ...     steady_state([curve], [7.0], targets=[4.2], ambient=300.0, names=["cold plate"])
+    ... except CoolingShortfallError as err:
+    ...     print(err.stage, round(err.shortfall, 3))
+    cold plate 2.0
     """
 
     def __init__(
@@ -1077,13 +1088,15 @@ class _Network:
                     k = np.asarray(link.conductivity(grid), dtype=float)
                     F = np.concatenate([[0.0], np.cumsum(0.5 * (k[1:] + k[:-1]) * np.diff(grid))])
                 else:
+                    # F(T) = integral of k from the grid's foot to T; F(foot) = 0
+                    integral = link.conductivity_integral
                     try:
-                        F = np.asarray(link.conductivity_integral(grid[0], grid), dtype=float)
-                        if F.shape != grid.shape:
-                            raise ValueError
+                        rest = np.asarray(integral(grid[0], grid[1:]), dtype=float)
+                        if rest.shape != grid[1:].shape:
+                            raise ValueError("not vectorised")
                     except (TypeError, ValueError):
-                        F = np.array([float(link.conductivity_integral(grid[0], t)) for t in grid])
-                    F = F - F[0]
+                        rest = np.array([float(integral(grid[0], t)) for t in grid[1:]])
+                    F = np.concatenate([[0.0], rest])
                 self._links.append((a, b, geometry, F))
 
     @staticmethod
@@ -1230,6 +1243,16 @@ class CooldownStage:
         energy-closure check instead of the integral of ``heat_capacity``.
     entropy : callable, optional
         Total entropy ``S(T)`` [J/K]; with ``enthalpy``, gives the reversible work exactly.
+
+    Examples
+    --------
+    A cold plate precooled to 77 K, to be cooled to 4.2 K, with a stand-in heat capacity
+    C = 4 T J/K (a plan builds ``heat_capacity`` from the material library: the sum of
+    mass times ``specific_heat`` of the stage's parts):
+
+    >>> stage = CooldownStage("cold plate", lambda T: 40.0 * 0.1 * T, 77.0, 4.2)
+    >>> stage.initial_temperature, stage.target_temperature
+    (77.0, 4.2)
     """
 
     name: str
