@@ -5,7 +5,10 @@ from __future__ import annotations
 from .document import Bullets, Chart, Heading, Paragraph, Table, duration_h, energy, litres, \
     money, sig
 
-SECTION_BUILDERS: list = []  # further sections: fn(data) -> list of blocks, in order
+def _sections() -> list:
+    from .sections import loads_section, refrigeration_section, rooms_section
+
+    return [loads_section, refrigeration_section, rooms_section]
 
 
 def _summary(data: dict) -> list:
@@ -162,7 +165,7 @@ def build_document(data: dict) -> list:
     blocks += _budget(data)
     blocks += _steps(data)
     blocks += _order(data)
-    for builder in SECTION_BUILDERS:
+    for builder in _sections():
         blocks += builder(data)
     blocks += _closing(data)
     return blocks

@@ -57,7 +57,7 @@ def ascii_chart(chart: Chart, width: int = 72, height: int = 14) -> list[str]:
     label_w = max(len(f"{y1:.3g}"), len(f"{y0:.3g}"))
     plot_w = width - label_w - 2
     grid = [[" "] * plot_w for _ in range(height)]
-    marks = "*o+x#@"
+    marks = "*o+x#@%=~"
     for k, (_, sx, sy) in enumerate(chart.series):
         for x, y in zip(sx, sy):
             col = int(round((x - x0) / (x1 - x0) * (plot_w - 1)))
