@@ -236,8 +236,8 @@ def _check_temperature(
         high = float(np.max(t))
         raise TemperatureError(
             f"{material.id}: {high:g} K is above the range of its {what} data "
-            f"({material.t_min:g} K to {t_max:g} K); ask for extrapolation to use the "
-            "model beyond its data"
+            f"(to {t_max:g} K); pass extrapolate=True (on the command line "
+            "--extrapolate) to use the model beyond its data"
         )
 
 
