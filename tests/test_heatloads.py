@@ -11,6 +11,8 @@ from datetime import datetime, timedelta
 
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from cryoplan import heatloads as hl
 from cryoplan.errors import InputError, TemperatureError, UnknownNameError
@@ -458,6 +460,17 @@ def test_vapor_cooled_lead_of_given_shape():
         hl.vapor_cooled_lead_load(amps, 2.0 * shape * area, area, k, 4.2, 300.0, latent, cp)
 
 
+def test_vapor_cooled_optimum_does_not_depend_on_the_metal():
+    # with the Wiedemann-Franz law the optimum heat per ampere is the same for every metal,
+    # only the optimum shape changes (Lock 1969): a constant k and a strongly peaked k
+    # (pure-copper-like) give the same heat; 1e-6: the shooting tolerance
+    peaked = lambda T: 400.0 + 2000.0 * np.exp(-(((np.asarray(T) - 15.0) / 10.0) ** 2))  # noqa: E731
+    flat, shape_flat = hl.vapor_cooled_lead_optimum(100.0, 4.2, 300.0, 20.7e3, 5193.0, 400.0)
+    peak, shape_peak = hl.vapor_cooled_lead_optimum(100.0, 4.2, 300.0, 20.7e3, 5193.0, peaked)
+    assert peak == pytest.approx(flat, rel=1e-6)
+    assert shape_peak > shape_flat
+
+
 def test_vapor_cooled_lead_tends_to_conduction_cooled_without_gas():
     # a latent heat a million times larger leaves almost no gas: the conduction-cooled lead;
     # 1e-4: the residual cooling (dh/h_fg ~ 1e-4)
@@ -619,3 +632,37 @@ def test_refill_schedule():
         hl.refill_schedule(start, 0.0, 86400)
     with pytest.raises(InputError, match="too many"):
         hl.refill_schedule(start, 1.0, 365 * 86400)
+
+
+# --------------------------------------------------------------------------------------------
+# properties that must hold everywhere
+# --------------------------------------------------------------------------------------------
+
+temperatures = st.floats(min_value=1.0, max_value=400.0)
+emissivities = st.floats(min_value=1e-3, max_value=1.0)
+
+
+@settings(max_examples=60, deadline=None)
+@given(temperatures, temperatures, emissivities, emissivities, st.floats(0.0, 1.0))
+def test_radiation_flows_from_warm_to_cold_and_is_bounded(T1, T2, e1, e2, ratio):
+    q = hl.gray_body_exchange(1.0, T1, T2, e1, e2, ratio)
+    black = SIGMA * (T2**4 - T1**4)
+    assert np.sign(q) == np.sign(black)  # second law: never against the temperature step
+    assert abs(q) <= abs(black) * (1 + 1e-12)  # never more than black bodies
+
+
+@settings(max_examples=40, deadline=None)
+@given(temperatures, temperatures, st.integers(1, 200), st.floats(500.0, 6000.0))
+def test_mli_flux_sign_and_layer_count(T1, T2, layers, density):
+    q = hl.mli_heat_flux(min(T1, T2), max(T1, T2), layers, density)
+    assert q >= 0.0
+    assert hl.mli_heat_flux(min(T1, T2), max(T1, T2), layers + 1, density) <= q
+
+
+@settings(max_examples=40, deadline=None)
+@given(temperatures, temperatures, st.floats(1e-4, 10.0), st.floats(1e-6, 1e-2))
+def test_free_molecular_sign_and_linearity(T1, T2, pressure_mpa, area):
+    q = hl.free_molecular_conduction(area, T1, T2, pressure_mpa * 1e-3, "helium")
+    assert np.sign(q) == np.sign(T2 - T1) or q == 0.0
+    q2 = hl.free_molecular_conduction(2 * area, T1, T2, pressure_mpa * 1e-3, "helium")
+    assert q2 == pytest.approx(2 * q, rel=1e-12, abs=1e-300)
