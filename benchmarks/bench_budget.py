@@ -38,13 +38,25 @@ def main() -> None:
     largest = max(examples, key=os.path.getsize)
     env = dict(os.environ, PYTHONPATH=ROOT)
     # warm the cache and pint's registry cache
-    subprocess.run([sys.executable, "-m", "cryoplan", "print", largest], env=env, check=True,
-                   capture_output=True)
+    subprocess.run(
+        [sys.executable, "-m", "cryoplan", "print", largest],
+        env=env,
+        check=True,
+        capture_output=True,
+    )
 
-    t_coolprop = best(lambda: subprocess.run([sys.executable, "-c", "import CoolProp.CoolProp"],
-                                             check=True), 3)
-    t_print = best(lambda: subprocess.run([sys.executable, "-m", "cryoplan", "print", largest],
-                                          env=env, check=True, capture_output=True), 3)
+    t_coolprop = best(
+        lambda: subprocess.run([sys.executable, "-c", "import CoolProp.CoolProp"], check=True), 3
+    )
+    t_print = best(
+        lambda: subprocess.run(
+            [sys.executable, "-m", "cryoplan", "print", largest],
+            env=env,
+            check=True,
+            capture_output=True,
+        ),
+        3,
+    )
     t_sum = best(lambda: sum(range(10**6)), 5)
     plan = cryoplan.load_plan(largest)
     cryoplan.evaluate(plan)

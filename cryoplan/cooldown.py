@@ -204,8 +204,9 @@ def state_budget(enthalpy, entropy, mass, t_start, t_end, t_ambient) -> dict[str
     return {"heat": heat, "entropy": ent, "work": work}
 
 
-def minimum_work(material_id: str, mass_kg: float, T_start: float, T_end: float,
-                 T_ambient: float) -> float:
+def minimum_work(
+    material_id: str, mass_kg: float, T_start: float, T_end: float, T_ambient: float
+) -> float:
     r"""Reversible work to cool a mass of a material from T_start to T_end, rejecting at T_ambient.
 
     :math:`W = m \{T_0 [S(T_1) - S(T_2)] - [H(T_1) - H(T_2)]\}`, see :func:`state_budget`.
@@ -233,12 +234,14 @@ def minimum_work(material_id: str, mass_kg: float, T_start: float, T_end: float,
     from .library import material
 
     m = material(material_id)
-    return float(state_budget(m.enthalpy, m.entropy, mass_kg, T_start, T_end,
-                              T_ambient)["work"].sum())
+    return float(
+        state_budget(m.enthalpy, m.entropy, mass_kg, T_start, T_end, T_ambient)["work"].sum()
+    )
 
 
-def liquid_for_cooldown(material_id: str, mass_kg: float, T_start: float, T_end: float,
-                        cryogen, gas_use: float = 0.0) -> float:
+def liquid_for_cooldown(
+    material_id: str, mass_kg: float, T_start: float, T_end: float, cryogen, gas_use: float = 0.0
+) -> float:
     """Litres of liquid cryogen boiled to cool a mass of a material (no transfer loss).
 
     See :func:`cryogen_mass_for_cooldown` for the method.
@@ -272,15 +275,21 @@ def liquid_for_cooldown(material_id: str, mass_kg: float, T_start: float, T_end:
     from .library import material
 
     if not 0.0 <= gas_use <= 1.0:
-        raise InputError("gas_use outside 0..1", key="gas_use", expected="a number from 0 to 1",
-                         found=repr(gas_use))
+        raise InputError(
+            "gas_use outside 0..1",
+            key="gas_use",
+            expected="a number from 0 to 1",
+            found=repr(gas_use),
+        )
     c = _cryogen(cryogen) if isinstance(cryogen, str) else cryogen
     if T_end < c.boiling_point - 1e-9:
         raise TemperatureError(
-            f"{c.name} boils at {c.boiling_point:.2f} K; it cannot cool to {T_end:g} K")
+            f"{c.name} boils at {c.boiling_point:.2f} K; it cannot cool to {T_end:g} K"
+        )
     m = material(material_id)
     tb = c.boiling_point
     vap = (lambda T: c.vapor_enthalpy(np.maximum(T, tb))) if gas_use else (lambda T: 0 * T)
-    kg = cryogen_mass_for_cooldown(m.specific_heat, mass_kg, T_start, T_end, c.latent_heat,
-                                   vap, gas_use)
+    kg = cryogen_mass_for_cooldown(
+        m.specific_heat, mass_kg, T_start, T_end, c.latent_heat, vap, gas_use
+    )
     return kg / c.liquid_density * 1000.0

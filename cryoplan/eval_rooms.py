@@ -45,11 +45,21 @@ def _vessels(plan: Plan, room, index: int, data: dict) -> list[dict]:
         if boil is None:
             boil = v.liquid * DEFAULT_DEWAR_BOILOFF_PER_DAY / 86400.0
             source = "1 %/day, common practice"
-        out.append({"name": v.name, "cryogen": v.cryogen, "liquid_m3": v.liquid,
-                    "boiloff_liquid_m3_s": boil, "boiloff_source": source,
-                    "failure_gas_m3_s": v.failure_rate, "quench": v.quench,
-                    "quench_time_s": v.quench_time, "quench_fraction": v.quench_fraction,
-                    "ratio": fluid.expansion_ratio(room.temperature), "bath": False})
+        out.append(
+            {
+                "name": v.name,
+                "cryogen": v.cryogen,
+                "liquid_m3": v.liquid,
+                "boiloff_liquid_m3_s": boil,
+                "boiloff_source": source,
+                "failure_gas_m3_s": v.failure_rate,
+                "quench": v.quench,
+                "quench_time_s": v.quench_time,
+                "quench_fraction": v.quench_fraction,
+                "ratio": fluid.expansion_ratio(room.temperature),
+                "bath": False,
+            }
+        )
     if room.include_baths:
         for b in plan.baths:
             fluid = cryogen(b.cryogen)
@@ -59,13 +69,21 @@ def _vessels(plan: Plan, room, index: int, data: dict) -> list[dict]:
                     boil = entry.get("boiloff_L_per_h", 0.0) / 1000.0 / 3600.0
             if boil is None:
                 boil = 0.0
-            out.append({"name": b.name, "cryogen": b.cryogen, "liquid_m3": b.volume,
-                        "boiloff_liquid_m3_s": boil, "boiloff_source": "static loads",
-                        "failure_gas_m3_s": None,
-                        "quench": room.quench and b.cryogen == "helium",
-                        "quench_time_s": room.quench_time,
-                        "quench_fraction": room.quench_fraction,
-                        "ratio": fluid.expansion_ratio(room.temperature), "bath": True})
+            out.append(
+                {
+                    "name": b.name,
+                    "cryogen": b.cryogen,
+                    "liquid_m3": b.volume,
+                    "boiloff_liquid_m3_s": boil,
+                    "boiloff_source": "static loads",
+                    "failure_gas_m3_s": None,
+                    "quench": room.quench and b.cryogen == "helium",
+                    "quench_time_s": room.quench_time,
+                    "quench_fraction": room.quench_fraction,
+                    "ratio": fluid.expansion_ratio(room.temperature),
+                    "bath": True,
+                }
+            )
     del index
     return out
 
@@ -85,79 +103,129 @@ def analyse_rooms(plan: Plan, data: dict) -> None:
         background = sum(safety.gas_rate(v["boiloff_liquid_m3_s"], v["ratio"]) for v in vessels)
         cases = []
         for v in vessels:
-            cases.append((safety.sudden_release_case(
-                v["liquid_m3"], v["ratio"], background_rate=background,
-                label=f"sudden release: {v['name']}"), math.inf))
+            cases.append(
+                (
+                    safety.sudden_release_case(
+                        v["liquid_m3"],
+                        v["ratio"],
+                        background_rate=background,
+                        label=f"sudden release: {v['name']}",
+                    ),
+                    math.inf,
+                )
+            )
             if v["quench"]:
-                cases.append((safety.quench_case(
-                    v["liquid_m3"], v["ratio"], fraction=v["quench_fraction"],
-                    duration=v["quench_time_s"], background_rate=background,
-                    label=f"quench: {v['name']}"), math.inf))
+                cases.append(
+                    (
+                        safety.quench_case(
+                            v["liquid_m3"],
+                            v["ratio"],
+                            fraction=v["quench_fraction"],
+                            duration=v["quench_time_s"],
+                            background_rate=background,
+                            label=f"quench: {v['name']}",
+                        ),
+                        math.inf,
+                    )
+                )
             if v["failure_gas_m3_s"]:
-                cases.append((safety.loss_of_vacuum_case(
-                    v["liquid_m3"], v["ratio"], v["failure_gas_m3_s"],
-                    background_rate=background, label=f"loss of vacuum: {v['name']}"),
-                    math.inf))
+                cases.append(
+                    (
+                        safety.loss_of_vacuum_case(
+                            v["liquid_m3"],
+                            v["ratio"],
+                            v["failure_gas_m3_s"],
+                            background_rate=background,
+                            label=f"loss of vacuum: {v['name']}",
+                        ),
+                        math.inf,
+                    )
+                )
         if background > 0:
             cases.append((safety.boiloff_case(background), math.inf))
-            cases.append((safety.ventilation_failure_case(background),
-                          VENTILATION_FAILURE_HORIZON_S))
+            cases.append(
+                (safety.ventilation_failure_case(background), VENTILATION_FAILURE_HORIZON_S)
+            )
         out_cases = []
         times = np.linspace(0.0, CURVE_SPAN_S, 121)
         curves = []
         for release, horizon in cases:
-            a = safety.assess_release(room.volume, room.ventilation, release,
-                                      alarm_percent=room.alarm, horizon=horizon)
-            out_cases.append({
-                "case": release.label,
-                "lowest_percent": float(a.lowest_percent),
-                "time_to_alarm_s": _finite(a.time_to_alarm_s),
-                "time_to_deficient_s": _finite(a.time_to_deficient_s),
-                "time_to_recover_s": _finite(a.time_to_recover_s),
-                "ventilation_needed_m3_per_h": _finite(a.ventilation_needed * 3600.0),
-                "minimum_room_volume_m3": _finite(a.minimum_room_volume),
-                "sudden_drop_percent": float(a.sudden_drop_percent),
-                "horizon_h": _finite(horizon / 3600.0),
-                "_a": a,
-            })
-            curves.append({"case": release.label, "time_min": (times / 60).tolist(),
-                           "oxygen_percent": np.asarray(safety.oxygen_curve(
-                               times, room.volume, room.ventilation, release)).tolist()})
+            a = safety.assess_release(
+                room.volume, room.ventilation, release, alarm_percent=room.alarm, horizon=horizon
+            )
+            out_cases.append(
+                {
+                    "case": release.label,
+                    "lowest_percent": float(a.lowest_percent),
+                    "time_to_alarm_s": _finite(a.time_to_alarm_s),
+                    "time_to_deficient_s": _finite(a.time_to_deficient_s),
+                    "time_to_recover_s": _finite(a.time_to_recover_s),
+                    "ventilation_needed_m3_per_h": _finite(a.ventilation_needed * 3600.0),
+                    "minimum_room_volume_m3": _finite(a.minimum_room_volume),
+                    "sudden_drop_percent": float(a.sudden_drop_percent),
+                    "horizon_h": _finite(horizon / 3600.0),
+                    "_a": a,
+                }
+            )
+            curves.append(
+                {
+                    "case": release.label,
+                    "time_min": (times / 60).tolist(),
+                    "oxygen_percent": np.asarray(
+                        safety.oxygen_curve(times, room.volume, room.ventilation, release)
+                    ).tolist(),
+                }
+            )
         worst = min(out_cases, key=lambda c: c["lowest_percent"]) if out_cases else None
         verdict = []
         if worst is not None:
-            cont = [c for c in out_cases if c["_a"].continuous_ventilation_needed > 0
-                    and "sudden" not in c["case"]]
+            cont = [
+                c
+                for c in out_cases
+                if c["_a"].continuous_ventilation_needed > 0 and "sudden" not in c["case"]
+            ]
             need = max(cont, key=lambda c: c["_a"].continuous_ventilation_needed) if cont else None
             sudden = [c for c in out_cases if c["case"].startswith("sudden")]
             worst_sudden = min(sudden, key=lambda c: c["sudden_drop_percent"]) if sudden else None
-            recover = [c["_a"].time_to_recover_s for c in out_cases
-                       if math.isfinite(c["_a"].time_to_recover_s)]
+            recover = [
+                c["_a"].time_to_recover_s
+                for c in out_cases
+                if math.isfinite(c["_a"].time_to_recover_s)
+            ]
             verdict = safety.room_verdict(
                 worst["lowest_percent"],
                 min(c["_a"].time_to_alarm_s for c in out_cases),
                 room.alarm,
                 ventilation=room.ventilation,
-                ventilation_needed=None if need is None else
-                need["_a"].continuous_ventilation_needed,
+                ventilation_needed=None
+                if need is None
+                else need["_a"].continuous_ventilation_needed,
                 ventilation_case=None if need is None else need["case"],
-                sudden_drop_percent=None if worst_sudden is None else
-                worst_sudden["sudden_drop_percent"],
-                minimum_room_volume=None if worst_sudden is None else
-                worst_sudden["_a"].minimum_room_volume,
+                sudden_drop_percent=None
+                if worst_sudden is None
+                else worst_sudden["sudden_drop_percent"],
+                minimum_room_volume=None
+                if worst_sudden is None
+                else worst_sudden["_a"].minimum_room_volume,
                 room_volume=room.volume,
                 time_to_recover_s=max(recover) if recover else None,
             )
         for c in out_cases:
             del c["_a"]
         entry = {
-            "name": room.name, "volume_m3": room.volume,
+            "name": room.name,
+            "volume_m3": room.volume,
             "ventilation_m3_per_h": room.ventilation * 3600.0,
             "air_changes_per_h": room.ventilation * 3600.0 / room.volume,
             "alarm_percent": room.alarm,
-            "vessels": [{k: v[k] for k in ("name", "cryogen", "liquid_m3", "ratio", "bath",
-                                           "boiloff_source")}
-                        | {"gas_m3": v["liquid_m3"] * v["ratio"]} for v in vessels],
+            "vessels": [
+                {
+                    k: v[k]
+                    for k in ("name", "cryogen", "liquid_m3", "ratio", "bath", "boiloff_source")
+                }
+                | {"gas_m3": v["liquid_m3"] * v["ratio"]}
+                for v in vessels
+            ],
             "cases": out_cases,
             "worst_case": None if worst is None else worst["case"],
             "lowest_percent": None if worst is None else worst["lowest_percent"],
@@ -168,9 +236,15 @@ def analyse_rooms(plan: Plan, data: dict) -> None:
         if worst is not None and (worst_all is None or worst["lowest_percent"] < worst_all):
             worst_all = worst["lowest_percent"]
     data["rooms"] = rooms_out
-    data["oxygen_effects"] = [{"from_percent": b.low_percent, "to_percent": b.high_percent,
-                               "effect": b.effect, "source": b.source}
-                              for b in safety.OXYGEN_EFFECTS]
+    data["oxygen_effects"] = [
+        {
+            "from_percent": b.low_percent,
+            "to_percent": b.high_percent,
+            "effect": b.effect,
+            "source": b.source,
+        }
+        for b in safety.OXYGEN_EFFECTS
+    ]
     data["summary"]["lowest_oxygen_percent"] = worst_all
     data.setdefault("sources", []).append(SOURCE)
     for b in safety.OXYGEN_EFFECTS:
@@ -179,4 +253,5 @@ def analyse_rooms(plan: Plan, data: dict) -> None:
     data.setdefault("assumptions", []).append(
         "Rooms: the released gas mixes evenly through the room at once (well-mixed model); "
         "dewars without a boil-off figure lose 1 % of their contents a day (common "
-        "practice); a ventilation failure is followed for 8 h.")
+        "practice); a ventilation failure is followed for 8 h."
+    )

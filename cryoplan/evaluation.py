@@ -97,17 +97,24 @@ def _cooldown_steps(plan: Plan, case: str) -> tuple[list[dict], dict[str, float]
     from .library import material
 
     factor = {"low": 1 - plan.mass_margin, "nominal": 1.0, "high": 1 + plan.mass_margin}[case]
-    temps = {(s.name, i): (p.start if p.start is not None else plan.cooldown.start)
-             for s in plan.stages for i, p in enumerate(s.parts)}
+    temps = {
+        (s.name, i): (p.start if p.start is not None else plan.cooldown.start)
+        for s in plan.stages
+        for i, p in enumerate(s.parts)
+    }
     steps_out = []
     per_cryogen: dict[str, float] = {}
     curves = []
     for n, step in enumerate(plan.cooldown.steps):
         fluid = cryogen(step.cryogen, pressure=step.pressure)
-        gas_use = {"low": step.gas_use_high, "nominal": step.gas_use,
-                   "high": step.gas_use_low}[case]
+        gas_use = {"low": step.gas_use_high, "nominal": step.gas_use, "high": step.gas_use_low}[
+            case
+        ]
         tb = fluid.boiling_point
-        vap = (lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)))
+
+        def vap(T, f=fluid, tb=tb):
+            return f.vapor_enthalpy(np.maximum(T, tb))
+
         kg_total = 0.0
         cooled = []
         curve_T, curve_m = [], []
@@ -120,32 +127,58 @@ def _cooldown_steps(plan: Plan, case: str) -> tuple[list[dict], dict[str, float]
                     # boiling point, 77.35 K
                     continue
                 m = material(p.material)
-                T, cum = cumulative_cryogen_mass(m.specific_heat, p.mass * factor, t_now,
-                                                 target, fluid.latent_heat, vap, gas_use)
+                T, cum = cumulative_cryogen_mass(
+                    m.specific_heat,
+                    p.mass * factor,
+                    t_now,
+                    target,
+                    fluid.latent_heat,
+                    vap,
+                    gas_use,
+                )
                 kg_total += float(cum[-1])
                 curve_T.append(T)
                 curve_m.append(cum)
-                cooled.append({"stage": s.name, "part": p.name, "from_K": t_now,
-                               "to_K": target,
-                               "liquid_L": float(cum[-1]) / fluid.liquid_density * 1000})
+                cooled.append(
+                    {
+                        "stage": s.name,
+                        "part": p.name,
+                        "from_K": t_now,
+                        "to_K": target,
+                        "liquid_L": float(cum[-1]) / fluid.liquid_density * 1000,
+                    }
+                )
                 temps[(s.name, i)] = target
         litres = kg_total / fluid.liquid_density * 1000.0
         per_cryogen[step.cryogen] = per_cryogen.get(step.cryogen, 0.0) + litres
-        steps_out.append({
-            "step": n + 1, "cryogen": step.cryogen, "to_K": step.to,
-            "written_to_K": step.written_to, "pressure_Pa": step.pressure,
-            "boiling_point_K": tb, "gas_use": gas_use, "liquid_L": litres, "parts": cooled,
-            "note": step.note,
-        })
+        steps_out.append(
+            {
+                "step": n + 1,
+                "cryogen": step.cryogen,
+                "to_K": step.to,
+                "written_to_K": step.written_to,
+                "pressure_Pa": step.pressure,
+                "boiling_point_K": tb,
+                "gas_use": gas_use,
+                "liquid_L": litres,
+                "parts": cooled,
+                "note": step.note,
+            }
+        )
         if case == "nominal" and curve_T:
             grid = np.linspace(max(T[0] for T in curve_T), step.to, 40)
             total = np.zeros_like(grid)
             for T, cum in zip(curve_T, curve_m):
                 # T runs warm -> cold; interpolate on ascending axes
                 total += np.interp(-grid, -T, cum, left=0.0, right=float(cum[-1]))
-            curves.append({"step": n + 1, "cryogen": step.cryogen,
-                           "temperature_K": grid.tolist(),
-                           "liquid_L": (total / fluid.liquid_density * 1000).tolist()})
+            curves.append(
+                {
+                    "step": n + 1,
+                    "cryogen": step.cryogen,
+                    "temperature_K": grid.tolist(),
+                    "liquid_L": (total / fluid.liquid_density * 1000).tolist(),
+                }
+            )
     return steps_out, per_cryogen, curves
 
 
@@ -160,14 +193,21 @@ def _insert_litres(plan: Plan, factor: float) -> dict[str, float]:
         tb = fluid.boiling_point
         m = material(ins.material)
         kg = cryogen_mass_for_cooldown(
-            m.specific_heat, ins.mass * factor, ins.start, tb, fluid.latent_heat,
-            lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)), ins.gas_use)
+            m.specific_heat,
+            ins.mass * factor,
+            ins.start,
+            tb,
+            fluid.latent_heat,
+            lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)),
+            ins.gas_use,
+        )
         out[ins.into] = out.get(ins.into, 0.0) + kg / fluid.liquid_density * 1000 * ins.times
     return out
 
 
-def _order(plan: Plan, cooldown_L: dict[str, float], inserts_L: dict[str, float],
-           steps: list[dict]) -> dict[str, dict]:
+def _order(
+    plan: Plan, cooldown_L: dict[str, float], inserts_L: dict[str, float], steps: list[dict]
+) -> dict[str, dict]:
     """What to order per cryogen: cooldown + bath fill + inserts + transfer losses + heels."""
     cryogens = set(cooldown_L) | set(inserts_L) | {b.cryogen for b in plan.baths}
     order = {}
@@ -190,8 +230,11 @@ def _order(plan: Plan, cooldown_L: dict[str, float], inserts_L: dict[str, float]
         delivered += fill + ins
         supply = plan.supplies.get(cry)
         heel = supply.heel * 1000 if supply else 0.0
-        dewars = choose_dewars(transferred, [d * 1000 for d in supply.dewars], heel) if (
-            supply and supply.dewars) else []
+        dewars = (
+            choose_dewars(transferred, [d * 1000 for d in supply.dewars], heel)
+            if (supply and supply.dewars)
+            else []
+        )
         n_dewars = sum(n for _, n in dewars)
         ordered = sum(s * n for s, n in dewars) if dewars else transferred + heel * 0
         price = supply.price if supply and supply.price is not None else None
@@ -224,9 +267,13 @@ def _liquefaction(plan: Plan, order: dict[str, dict]) -> dict[str, dict]:
         real = None
         if supply and supply.liquefier_energy is not None:
             real = supply.liquefier_energy * entry["order_L"] / 1000
-        out[cry] = {"ideal_J": ideal, "ideal_kWh": ideal / 3.6e6,
-                    "real_J": real, "real_kWh": None if real is None else real / 3.6e6,
-                    "percent_of_ideal": None if not real else 100 * ideal / real}
+        out[cry] = {
+            "ideal_J": ideal,
+            "ideal_kWh": ideal / 3.6e6,
+            "real_J": real,
+            "real_kWh": None if real is None else real / 3.6e6,
+            "percent_of_ideal": None if not real else 100 * ideal / real,
+        }
     return out
 
 
@@ -244,19 +291,40 @@ def _budget(plan: Plan) -> dict[str, Any]:
             for k in st:
                 st[k] += b[k]
                 total[k] += b[k]
-            parts.append({"stage": s.name, "part": p.name, "material": m.id,
-                          "material_name": m.name, "mass_kg": p.mass, "start_K": start,
-                          "end_K": s.temperature,
-                          "heat_J": b["heat"].tolist(), "entropy_J_per_K": b["entropy"].tolist(),
-                          "work_J": b["work"].tolist()})
-        stages.append({"stage": s.name, "temperature_K": s.temperature,
-                       "mass_kg": sum(p.mass for p in s.parts),
-                       "heat_J": st["heat"].tolist(), "entropy_J_per_K": st["entropy"].tolist(),
-                       "work_J": st["work"].tolist()})
-    return {"bands": list(BAND_NAMES), "parts": parts, "stages": stages,
-            "total": {"heat_J": total["heat"].tolist(),
-                      "entropy_J_per_K": total["entropy"].tolist(),
-                      "work_J": total["work"].tolist()}}
+            parts.append(
+                {
+                    "stage": s.name,
+                    "part": p.name,
+                    "material": m.id,
+                    "material_name": m.name,
+                    "mass_kg": p.mass,
+                    "start_K": start,
+                    "end_K": s.temperature,
+                    "heat_J": b["heat"].tolist(),
+                    "entropy_J_per_K": b["entropy"].tolist(),
+                    "work_J": b["work"].tolist(),
+                }
+            )
+        stages.append(
+            {
+                "stage": s.name,
+                "temperature_K": s.temperature,
+                "mass_kg": sum(p.mass for p in s.parts),
+                "heat_J": st["heat"].tolist(),
+                "entropy_J_per_K": st["entropy"].tolist(),
+                "work_J": st["work"].tolist(),
+            }
+        )
+    return {
+        "bands": list(BAND_NAMES),
+        "parts": parts,
+        "stages": stages,
+        "total": {
+            "heat_J": total["heat"].tolist(),
+            "entropy_J_per_K": total["entropy"].tolist(),
+            "work_J": total["work"].tolist(),
+        },
+    }
 
 
 def evaluate(plan: Plan) -> Results:
@@ -276,16 +344,29 @@ def evaluate(plan: Plan) -> Results:
 
     data: dict[str, Any] = {"summary": {}}
     data["plan"] = {
-        "title": plan.title, "file": plan.path, "ambient_K": plan.ambient,
-        "cooldown_start_K": plan.cooldown.start, "mass_margin": plan.mass_margin,
-        "cryoplan_version": __version__, "date": _dt.date.today().isoformat(),
+        "title": plan.title,
+        "file": plan.path,
+        "ambient_K": plan.ambient,
+        "cooldown_start_K": plan.cooldown.start,
+        "mass_margin": plan.mass_margin,
+        "cryoplan_version": __version__,
+        "date": _dt.date.today().isoformat(),
     }
     data["cold_mass"] = [
-        {"stage": s.name, "temperature_K": s.temperature,
-         "parts": [{"name": p.name, "material": p.material,
-                    "material_name": material(p.material).name, "mass_kg": p.mass,
-                    "start_K": p.start if p.start is not None else plan.cooldown.start}
-                   for p in s.parts]}
+        {
+            "stage": s.name,
+            "temperature_K": s.temperature,
+            "parts": [
+                {
+                    "name": p.name,
+                    "material": p.material,
+                    "material_name": material(p.material).name,
+                    "mass_kg": p.mass,
+                    "start_K": p.start if p.start is not None else plan.cooldown.start,
+                }
+                for p in s.parts
+            ],
+        }
         for s in plan.stages
     ]
     data["budget"] = _budget(plan)
@@ -295,18 +376,36 @@ def evaluate(plan: Plan) -> Results:
         steps, per_cryogen, curves = _cooldown_steps(plan, case)
         factor = {"low": 1 - plan.mass_margin, "nominal": 1.0, "high": 1 + plan.mass_margin}[case]
         inserts = _insert_litres(plan, factor)
-        cases[case] = {"steps": steps, "cooldown_L": per_cryogen,
-                       "order": _order(plan, per_cryogen, inserts, steps)}
+        cases[case] = {
+            "steps": steps,
+            "cooldown_L": per_cryogen,
+            "order": _order(plan, per_cryogen, inserts, steps),
+        }
         if case == "nominal":
             data["cumulative_liquid"] = curves
-            data["inserts"] = [{"name": i.name, "material": i.material, "mass_kg": i.mass,
-                                "into": i.into, "times": i.times} for i in plan.inserts]
+            data["inserts"] = [
+                {
+                    "name": i.name,
+                    "material": i.material,
+                    "mass_kg": i.mass,
+                    "into": i.into,
+                    "times": i.times,
+                }
+                for i in plan.inserts
+            ]
     data["steps"] = cases["nominal"]["steps"]
     data["order"] = {
-        cry: {**entry, "range": {c: {"order_L": cases[c]["order"].get(cry, {}).get("order_L"),
-                                     "needed_L": cases[c]["order"].get(cry, {}).get("needed_L"),
-                                     "cost": cases[c]["order"].get(cry, {}).get("cost")}
-                                 for c in CASES}}
+        cry: {
+            **entry,
+            "range": {
+                c: {
+                    "order_L": cases[c]["order"].get(cry, {}).get("order_L"),
+                    "needed_L": cases[c]["order"].get(cry, {}).get("needed_L"),
+                    "cost": cases[c]["order"].get(cry, {}).get("cost"),
+                }
+                for c in CASES
+            },
+        }
         for cry, entry in cases["nominal"]["order"].items()
     }
     data["steps_range"] = [
@@ -325,8 +424,9 @@ def evaluate(plan: Plan) -> Results:
     summary["cooldown_time_h"] = None
     summary["lowest_oxygen_percent"] = None
     summary["cost"] = {c: e["cost"] for c, e in data["order"].items() if e["cost"] is not None}
-    summary["currency"] = next((e["currency"] for e in data["order"].values() if e["currency"]),
-                               "")
+    summary["currency"] = next(
+        (e["currency"] for e in data["order"].values() if e["currency"]), ""
+    )
     summary["heat_J"] = float(sum(data["budget"]["total"]["heat_J"]))
 
     import importlib
@@ -368,15 +468,18 @@ def _assumptions(plan: Plan) -> list[str]:
         "Litres are liquid at the cryogen's boiling point at the step's or bath's pressure.",
     ]
     if plan.mass_margin:
-        out.append(f"Masses carry a margin of +/-{plan.mass_margin * 100:g} % in the low and "
-                   "high cases.")
+        out.append(
+            f"Masses carry a margin of +/-{plan.mass_margin * 100:g} % in the low and high cases."
+        )
     used = sorted({s.cryogen for s in plan.cooldown.steps} | {b.cryogen for b in plan.baths})
     for cry in used:
         supply = plan.supplies.get(cry)
         if supply is None or supply.transfer_loss is None:
             loss = DEFAULT_TRANSFER_LOSS.get(cry, DEFAULT_TRANSFER_LOSS_OTHER)
-            out.append(f"Transfer loss of {cry}: {loss * 100:g} % of what is transferred "
-                       "(common practice; set transfer_loss in [[supply]] for your site).")
+            out.append(
+                f"Transfer loss of {cry}: {loss * 100:g} % of what is transferred "
+                "(common practice; set transfer_loss in [[supply]] for your site)."
+            )
     return out
 
 

@@ -205,8 +205,19 @@ class Plan:
 # --- the schema -----------------------------------------------------------------------
 
 TOP_KEYS = {
-    "title", "ambient", "stage", "cooldown", "bath", "supply", "insert", "load", "cooler",
-    "room", "margin", "operation", "notes",
+    "title",
+    "ambient",
+    "stage",
+    "cooldown",
+    "bath",
+    "supply",
+    "insert",
+    "load",
+    "cooler",
+    "room",
+    "margin",
+    "operation",
+    "notes",
 }
 STAGE_KEYS = {"name", "temperature", "parts"}
 PART_KEYS = {"name", "material", "mass", "volume", "dimensions", "shape", "start", "count"}
@@ -231,11 +242,25 @@ COOLER_KEYS = {"input_power", "percent_carnot", "stage", "link", "max_time"}
 COOLER_STAGE_KEYS = {"stage", "capacity", "map"}
 LINK_KEYS = {"between", "conductance", "material", "area", "length", "count"}
 ROOM_KEYS = {
-    "name", "volume", "ventilation", "alarm", "temperature", "vessel", "include_baths",
-    "quench", "quench_time", "quench_fraction",
+    "name",
+    "volume",
+    "ventilation",
+    "alarm",
+    "temperature",
+    "vessel",
+    "include_baths",
+    "quench",
+    "quench_time",
+    "quench_fraction",
 }
 VESSEL_KEYS = {
-    "name", "cryogen", "liquid", "boiloff", "failure_release", "quench", "quench_time",
+    "name",
+    "cryogen",
+    "liquid",
+    "boiloff",
+    "failure_release",
+    "quench",
+    "quench_time",
     "quench_fraction",
 }
 
@@ -287,8 +312,12 @@ class _Reader:
 
     def required(self, table: dict, name: str, key: str):
         if name not in table:
-            self.error(f"the key '{name}' is missing", f"{key}.{name}" if key else name,
-                       expected=f"a value for '{name}'", found="nothing")
+            self.error(
+                f"the key '{name}' is missing",
+                f"{key}.{name}" if key else name,
+                expected=f"a value for '{name}'",
+                found="nothing",
+            )
             return None
         return table[name]
 
@@ -299,12 +328,23 @@ class _Reader:
             return default
         value = table[name]
         if not isinstance(value, str) or not value.strip():
-            self.error("not a name", f"{key}.{name}", expected="a non-empty string", found=repr(value))
+            self.error(
+                "not a name", f"{key}.{name}", expected="a non-empty string", found=repr(value)
+            )
             return default
         return value.strip()
 
-    def quantity(self, table, name, key, dimension, default=None, required=False,
-                 positive=False, nonnegative=False):
+    def quantity(
+        self,
+        table,
+        name,
+        key,
+        dimension,
+        default=None,
+        required=False,
+        positive=False,
+        nonnegative=False,
+    ):
         path = f"{key}.{name}" if key else name
         if name not in table:
             if required:
@@ -319,12 +359,20 @@ class _Reader:
             self.errors.append(exc)
             return default
         if positive and not value > 0:
-            self.error(f"a {dimension} that is not positive", path,
-                       expected=f"a {dimension} greater than zero", found=repr(table[name]))
+            self.error(
+                f"a {dimension} that is not positive",
+                path,
+                expected=f"a {dimension} greater than zero",
+                found=repr(table[name]),
+            )
             return default
         if nonnegative and value < 0:
-            self.error(f"a negative {dimension}", path,
-                       expected=f"a {dimension} of zero or more", found=repr(table[name]))
+            self.error(
+                f"a negative {dimension}",
+                path,
+                expected=f"a {dimension} of zero or more",
+                found=repr(table[name]),
+            )
             return default
         return value
 
@@ -342,8 +390,12 @@ class _Reader:
             return default
         value = table[name]
         if isinstance(value, bool) or not isinstance(value, int) or value < 1:
-            self.error("not a whole number of 1 or more", f"{key}.{name}",
-                       expected="a whole number such as 3", found=repr(value))
+            self.error(
+                "not a whole number of 1 or more",
+                f"{key}.{name}",
+                expected="a whole number such as 3",
+                found=repr(value),
+            )
             return default
         return value
 
@@ -361,8 +413,9 @@ class _Reader:
             return units.parse_temperature(value, **self.where(path)), None
         except InputError as exc:
             if isinstance(value, str) and not any(ch.isdigit() for ch in value):
-                self.errors.append(UnknownNameError("stage", value, list(stage_temps),
-                                                    **self.where(path)))
+                self.errors.append(
+                    UnknownNameError("stage", value, list(stage_temps), **self.where(path))
+                )
             else:
                 self.errors.append(exc)
             return None, None
@@ -372,14 +425,16 @@ def _known_material(reader: _Reader, name, key: str) -> str | None:
     from .library import material
 
     if not isinstance(name, str):
-        reader.error("not a material id", key, expected="a material id such as 'copper'",
-                     found=repr(name))
+        reader.error(
+            "not a material id", key, expected="a material id such as 'copper'", found=repr(name)
+        )
         return None
     try:
         return material(name).id
     except UnknownNameError as exc:
-        reader.errors.append(UnknownNameError("material", name, _material_ids(),
-                                              **reader.where(key)))
+        reader.errors.append(
+            UnknownNameError("material", name, _material_ids(), **reader.where(key))
+        )
         del exc
         return None
 
@@ -396,8 +451,16 @@ def _known_cryogen(reader: _Reader, name, key: str) -> str | None:
     names = cryogen_names()
     if isinstance(name, str) and name.strip().lower() in names:
         return name.strip().lower()
-    aliases = {"he": "helium", "lhe": "helium", "ln2": "nitrogen", "n2": "nitrogen",
-               "ne": "neon", "h2": "hydrogen", "ar": "argon", "o2": "oxygen"}
+    aliases = {
+        "he": "helium",
+        "lhe": "helium",
+        "ln2": "nitrogen",
+        "n2": "nitrogen",
+        "ne": "neon",
+        "h2": "hydrogen",
+        "ar": "argon",
+        "o2": "oxygen",
+    }
     if isinstance(name, str) and name.strip().lower() in aliases:
         return aliases[name.strip().lower()]
     reader.errors.append(UnknownNameError("cryogen", str(name), names, **reader.where(key)))
@@ -412,15 +475,24 @@ def _boiling_point(cryogen: str, pressure: float) -> float:
 
 # --- sections ---------------------------------------------------------------------------
 
+
 def _part_mass(reader: _Reader, raw: dict, key: str, material_id: str | None) -> float | None:
     given = [k for k in ("mass", "volume", "dimensions") if k in raw]
     if len(given) > 1:
-        reader.error("give one of mass, volume or dimensions", f"{key}.{given[1]}",
-                     expected="one of mass, volume, dimensions", found=", ".join(given))
+        reader.error(
+            "give one of mass, volume or dimensions",
+            f"{key}.{given[1]}",
+            expected="one of mass, volume, dimensions",
+            found=", ".join(given),
+        )
         return None
     if not given:
-        reader.error("the part's mass is missing", f"{key}.mass",
-                     expected="mass, or volume or dimensions with a material", found="nothing")
+        reader.error(
+            "the part's mass is missing",
+            f"{key}.mass",
+            expected="mass, or volume or dimensions with a material",
+            found="nothing",
+        )
         return None
     count = reader.count(raw, "count", key, 1)
     if "mass" in raw:
@@ -450,8 +522,9 @@ def _volume_from_dimensions(reader: _Reader, raw: dict, key: str) -> float | Non
         "tube": (3, "three lengths: ['outer diameter', 'wall', 'length'] (tube)"),
     }
     if shape not in expect:
-        reader.error("unknown shape", f"{key}.shape", expected="box, cylinder or tube",
-                     found=repr(shape))
+        reader.error(
+            "unknown shape", f"{key}.shape", expected="box, cylinder or tube", found=repr(shape)
+        )
         return None
     n, text = expect[shape]
     if not isinstance(dims, list) or len(dims) != n:
@@ -465,8 +538,12 @@ def _volume_from_dimensions(reader: _Reader, raw: dict, key: str) -> float | Non
             reader.errors.append(exc)
             return None
         if v <= 0:
-            reader.error("a length that is not positive", path, expected="positive lengths",
-                         found=repr(dims[i]))
+            reader.error(
+                "a length that is not positive",
+                path,
+                expected="positive lengths",
+                found=repr(dims[i]),
+            )
             return None
         values.append(v)
     if shape == "box":
@@ -475,8 +552,12 @@ def _volume_from_dimensions(reader: _Reader, raw: dict, key: str) -> float | Non
         return math.pi / 4 * values[0] ** 2 * values[1]
     outer, wall, length = values
     if 2 * wall > outer:
-        reader.error("the wall is thicker than half the diameter", path,
-                     expected="wall < outer diameter / 2", found=repr(dims))
+        reader.error(
+            "the wall is thicker than half the diameter",
+            path,
+            expected="wall < outer diameter / 2",
+            found=repr(dims),
+        )
         return None
     return math.pi / 4 * (outer**2 - (outer - 2 * wall) ** 2) * length
 
@@ -490,11 +571,16 @@ def _stages(reader: _Reader, raw_list, ambient: float) -> list[Stage]:
         reader.keys(raw, STAGE_KEYS, key)
         name = reader.text(raw, "name", key, default=f"stage {i + 1}", required=True)
         if name in seen:
-            reader.error("two stages have the same name", f"{key}.name",
-                         expected="a name of its own", found=repr(name))
+            reader.error(
+                "two stages have the same name",
+                f"{key}.name",
+                expected="a name of its own",
+                found=repr(name),
+            )
         seen.add(name)
-        temperature = reader.quantity(raw, "temperature", key, "temperature", required=True,
-                                      positive=True)
+        temperature = reader.quantity(
+            raw, "temperature", key, "temperature", required=True, positive=True
+        )
         parts = []
         for j, praw in enumerate(reader.array(raw.get("parts"), f"{key}.parts")):
             pkey = f"{key}.parts[{j}]"
@@ -506,21 +592,27 @@ def _stages(reader: _Reader, raw_list, ambient: float) -> list[Stage]:
             mass = _part_mass(reader, praw, pkey, mat_id)
             start = reader.quantity(praw, "start", pkey, "temperature")
             if start is not None and temperature is not None and start < temperature:
-                reader.error("the part starts colder than its stage", f"{pkey}.start",
-                             expected=f"a start at or above {temperature:g} K",
-                             found=repr(praw["start"]))
+                reader.error(
+                    "the part starts colder than its stage",
+                    f"{pkey}.start",
+                    expected=f"a start at or above {temperature:g} K",
+                    found=repr(praw["start"]),
+                )
             if mat_id is not None and mass is not None:
-                parts.append(Part(pname, mat_id, mass, start, pkey,
-                                  reader.lines.line_of(pkey)))
+                parts.append(Part(pname, mat_id, mass, start, pkey, reader.lines.line_of(pkey)))
         if temperature is not None:
             if temperature > ambient:
-                reader.error("a stage warmer than the ambient", f"{key}.temperature",
-                             expected=f"at most the ambient, {ambient:g} K",
-                             found=repr(raw["temperature"]))
+                reader.error(
+                    "a stage warmer than the ambient",
+                    f"{key}.temperature",
+                    expected=f"at most the ambient, {ambient:g} K",
+                    found=repr(raw["temperature"]),
+                )
             stages.append(Stage(name, temperature, parts, key, reader.lines.line_of(key)))
     if not stages and not reader.errors:
-        reader.error("the plan has no stage", "stage", expected="at least one [[stage]]",
-                     found="none")
+        reader.error(
+            "the plan has no stage", "stage", expected="at least one [[stage]]", found="none"
+        )
     return stages
 
 
@@ -533,9 +625,11 @@ def _material_range_check(reader: _Reader, stages: list[Stage], start: float) ->
             top = part.start if part.start is not None else start
             if top > m.t_max * 1.005:
                 reader.error(
-                    f"'{m.id}' has data up to {m.t_max:g} K only", f"{part.key}.start"
-                    if part.start is not None else "cooldown.start",
-                    expected=f"a start at or below {m.t_max:g} K", found=f"{top:g} K")
+                    f"'{m.id}' has data up to {m.t_max:g} K only",
+                    f"{part.key}.start" if part.start is not None else "cooldown.start",
+                    expected=f"a start at or below {m.t_max:g} K",
+                    found=f"{top:g} K",
+                )
 
 
 def _cooldown(reader: _Reader, raw, stages: list[Stage], ambient: float, plan_notes) -> Cooldown:
@@ -553,21 +647,30 @@ def _cooldown(reader: _Reader, raw, stages: list[Stage], ambient: float, plan_no
         cry = reader.required(sraw, "cryogen", key)
         cry = _known_cryogen(reader, cry, f"{key}.cryogen") if cry is not None else None
         to = reader.quantity(sraw, "to", key, "temperature", required=True)
-        pressure = reader.quantity(sraw, "pressure", key, "pressure", default=101325.0,
-                                   positive=True)
+        pressure = reader.quantity(
+            sraw, "pressure", key, "pressure", default=101325.0, positive=True
+        )
         gas_use = reader.fraction(sraw, "gas_use", key, 0.0)
         low, high = gas_use, gas_use
         if "gas_use_range" in sraw:
             rng = sraw["gas_use_range"]
             if not (isinstance(rng, list) and len(rng) == 2):
-                reader.error("not a range", f"{key}.gas_use_range",
-                             expected="two numbers [low, high] in 0..1", found=repr(rng))
+                reader.error(
+                    "not a range",
+                    f"{key}.gas_use_range",
+                    expected="two numbers [low, high] in 0..1",
+                    found=repr(rng),
+                )
             else:
                 low = reader.fraction({"v": rng[0]}, "v", key, gas_use)
                 high = reader.fraction({"v": rng[1]}, "v", key, gas_use)
                 if not low <= gas_use <= high:
-                    reader.error("gas_use lies outside its range", f"{key}.gas_use_range",
-                                 expected=f"low <= {gas_use:g} <= high", found=repr(rng))
+                    reader.error(
+                        "gas_use lies outside its range",
+                        f"{key}.gas_use_range",
+                        expected=f"low <= {gas_use:g} <= high",
+                        found=repr(rng),
+                    )
         loss = reader.fraction(sraw, "transfer_loss", key, None, 0.0, 0.95)
         if cry is None or to is None or pressure is None:
             continue
@@ -581,23 +684,44 @@ def _cooldown(reader: _Reader, raw, stages: list[Stage], ambient: float, plan_no
         if to < tb - BOILING_POINT_SNAP_K:
             reader.error(
                 f"{cry} boils at {tb:.2f} K at {pressure / 1000:.4g} kPa; a {cry} step cannot "
-                "cool below that", f"{key}.to",
+                "cool below that",
+                f"{key}.to",
                 expected=f"'to' at or above {tb:.2f} K (or a lower bath pressure)",
-                found=repr(sraw["to"]))
+                found=repr(sraw["to"]),
+            )
             continue
         if to < tb:
-            note = (f"step {i + 1}: 'to = {sraw['to']}' read as the boiling point of {cry}, "
-                    f"{tb:.2f} K at {pressure / 1000:.4g} kPa")
+            note = (
+                f"step {i + 1}: 'to = {sraw['to']}' read as the boiling point of {cry}, "
+                f"{tb:.2f} K at {pressure / 1000:.4g} kPa"
+            )
             plan_notes.append(note)
             to = tb
         if to >= previous:
             where = "where the parts are" if i == 0 else "the previous step's end"
-            reader.error(f"the step ends above {where} ({previous:g} K)", f"{key}.to",
-                         expected=f"a temperature below {previous:g} K", found=repr(sraw["to"]))
+            reader.error(
+                f"the step ends above {where} ({previous:g} K)",
+                f"{key}.to",
+                expected=f"a temperature below {previous:g} K",
+                found=repr(sraw["to"]),
+            )
             continue
         previous = to
-        steps.append(Step(cry, to, gas_use, low, high, pressure, loss, written, note, key,
-                          reader.lines.line_of(key)))
+        steps.append(
+            Step(
+                cry,
+                to,
+                gas_use,
+                low,
+                high,
+                pressure,
+                loss,
+                written,
+                note,
+                key,
+                reader.lines.line_of(key),
+            )
+        )
     return Cooldown(start if start is not None else ambient, steps)
 
 
@@ -612,25 +736,35 @@ def _baths(reader: _Reader, raw_list, stages: list[Stage]) -> list[Bath]:
         cry = _known_cryogen(reader, cry, f"{key}.cryogen") if cry is not None else None
         volume = reader.quantity(raw, "volume", key, "volume", required=True, positive=True)
         stage = reader.text(raw, "stage", key, required=True)
-        pressure = reader.quantity(raw, "pressure", key, "pressure", default=101325.0,
-                                   positive=True)
+        pressure = reader.quantity(
+            raw, "pressure", key, "pressure", default=101325.0, positive=True
+        )
         refill = 0.0
         if "refill_at" in raw:
             value = raw["refill_at"]
-            if isinstance(value, (int, float)) and not isinstance(value, bool) or (
-                    isinstance(value, str) and value.strip().endswith("%")):
+            if (
+                isinstance(value, (int, float))
+                and not isinstance(value, bool)
+                or (isinstance(value, str) and value.strip().endswith("%"))
+            ):
                 frac = reader.fraction(raw, "refill_at", key, 0.0)
                 refill = frac * (volume or 0.0)
             else:
-                refill = reader.quantity(raw, "refill_at", key, "volume", default=0.0,
-                                         nonnegative=True)
+                refill = reader.quantity(
+                    raw, "refill_at", key, "volume", default=0.0, nonnegative=True
+                )
                 if volume is not None and refill >= volume:
-                    reader.error("the refill level is above the full volume", f"{key}.refill_at",
-                                 expected=f"less than {raw.get('volume')}", found=repr(value))
+                    reader.error(
+                        "the refill level is above the full volume",
+                        f"{key}.refill_at",
+                        expected=f"less than {raw.get('volume')}",
+                        found=repr(value),
+                    )
         loss = reader.fraction(raw, "transfer_loss", key, None, 0.0, 0.95)
         if stage is not None and stage not in names:
-            reader.errors.append(UnknownNameError("stage", stage, list(names),
-                                                  **reader.where(f"{key}.stage")))
+            reader.errors.append(
+                UnknownNameError("stage", stage, list(names), **reader.where(f"{key}.stage"))
+            )
             continue
         if None in (cry, volume, stage, pressure):
             continue
@@ -643,13 +777,16 @@ def _baths(reader: _Reader, raw_list, stages: list[Stage]) -> list[Bath]:
         if st < tb - BOILING_POINT_SNAP_K:
             reader.error(
                 f"a {cry} bath at {pressure / 1000:.4g} kPa holds {tb:.2f} K, not the stage's "
-                f"{st:g} K", f"{key}.stage",
+                f"{st:g} K",
+                f"{key}.stage",
                 expected=f"a stage at or above {tb:.2f} K, or a lower bath pressure",
-                found=repr(stage))
+                found=repr(stage),
+            )
             continue
         name = reader.text(raw, "name", key, default=f"{cry} bath")
-        baths.append(Bath(name, cry, volume, stage, pressure, refill, loss, key,
-                          reader.lines.line_of(key)))
+        baths.append(
+            Bath(name, cry, volume, stage, pressure, refill, loss, key, reader.lines.line_of(key))
+        )
     return baths
 
 
@@ -670,23 +807,32 @@ def _supplies(reader: _Reader, raw_list) -> dict[str, Supply]:
         price, currency = None, ""
         if "price" in raw:
             try:
-                price, currency, _ = units.parse_price(raw["price"], **reader.where(f"{key}.price"))
+                price, currency, _ = units.parse_price(
+                    raw["price"], **reader.where(f"{key}.price")
+                )
             except InputError as exc:
                 reader.errors.append(exc)
         heel = reader.quantity(raw, "heel", key, "volume", default=0.0, nonnegative=True)
         if dewars and heel is not None and heel >= min(dewars):
-            reader.error("the heel is as large as the smallest dewar", f"{key}.heel",
-                         expected=f"less than {min(dewars) * 1000:g} L", found=repr(raw["heel"]))
+            reader.error(
+                "the heel is as large as the smallest dewar",
+                f"{key}.heel",
+                expected=f"less than {min(dewars) * 1000:g} L",
+                found=repr(raw["heel"]),
+            )
         loss = reader.fraction(raw, "transfer_loss", key, None, 0.0, 0.95)
         liq = None
         if "liquefier_energy" in raw:
-            liq = reader.quantity(raw, "liquefier_energy", key, "energy per volume",
-                                  positive=True)
+            liq = reader.quantity(raw, "liquefier_energy", key, "energy per volume", positive=True)
         if cry is None:
             continue
         if cry in supplies:
-            reader.error("a second supply of the same cryogen", f"{key}.cryogen",
-                         expected="one [[supply]] per cryogen", found=repr(cry))
+            reader.error(
+                "a second supply of the same cryogen",
+                f"{key}.cryogen",
+                expected="one [[supply]] per cryogen",
+                found=repr(cry),
+            )
             continue
         supplies[cry] = Supply(cry, sorted(dewars), price, currency, heel or 0.0, loss, liq, key)
     return supplies
@@ -708,8 +854,11 @@ def _inserts(reader: _Reader, raw_list, ambient: float) -> list[Insert]:
         times = reader.count(raw, "times", key, 1)
         gas_use = reader.fraction(raw, "gas_use", key, 0.0)
         if None not in (mat_id, mass, into, start):
-            inserts.append(Insert(name, mat_id, mass, into, start, times, gas_use, key,
-                                  reader.lines.line_of(key)))
+            inserts.append(
+                Insert(
+                    name, mat_id, mass, into, start, times, gas_use, key, reader.lines.line_of(key)
+                )
+            )
     return inserts
 
 
@@ -722,17 +871,23 @@ def _loads(reader: _Reader, raw_list, stages: list[Stage]) -> list[Load]:
         kind = reader.text(raw, "kind", key, required=True)
         if kind is not None and kind not in LOAD_KEYS:
             close = closest(kind, list(LOAD_KEYS), n=2)
-            reader.error("unknown kind of load", f"{key}.kind",
-                         expected="one of " + ", ".join(LOAD_KEYS)
-                         + (f" (did you mean {close[0]!r}?)" if close else ""), found=repr(kind))
+            reader.error(
+                "unknown kind of load",
+                f"{key}.kind",
+                expected="one of "
+                + ", ".join(LOAD_KEYS)
+                + (f" (did you mean {close[0]!r}?)" if close else ""),
+                found=repr(kind),
+            )
             continue
         if kind is None:
             continue
         reader.keys(raw, LOAD_COMMON | LOAD_KEYS[kind], key)
         stage = reader.text(raw, "stage", key, required=True)
         if stage is not None and stage not in temps:
-            reader.errors.append(UnknownNameError("stage", stage, list(temps),
-                                                  **reader.where(f"{key}.stage")))
+            reader.errors.append(
+                UnknownNameError("stage", stage, list(temps), **reader.where(f"{key}.stage"))
+            )
             continue
         if stage is None:
             continue
@@ -750,8 +905,12 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         hot, hot_stage = reader.temperature_or_stage(raw, "from", key, temps)
         v["from"], v["from_stage"] = hot, hot_stage
         if hot is not None and hot <= stage_t:
-            reader.error("'from' is not warmer than the stage it loads", f"{key}.from",
-                         expected=f"a temperature above {stage_t:g} K", found=repr(raw["from"]))
+            reader.error(
+                "'from' is not warmer than the stage it loads",
+                f"{key}.from",
+                expected=f"a temperature above {stage_t:g} K",
+                found=repr(raw["from"]),
+            )
     if kind == "fixed":
         v["power"] = reader.quantity(raw, "power", key, "power", required=True, nonnegative=True)
     elif kind == "radiation":
@@ -759,14 +918,22 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         em = raw.get("emissivity", 0.05)  # default from the materials when not given
         ems = em if isinstance(em, list) else [em, em]
         if len(ems) != 2:
-            reader.error("wrong emissivity", f"{key}.emissivity",
-                         expected="one number, or [cold, warm]", found=repr(em))
+            reader.error(
+                "wrong emissivity",
+                f"{key}.emissivity",
+                expected="one number, or [cold, warm]",
+                found=repr(em),
+            )
             ems = [0.05, 0.05]
         out = []
         for e in ems:
             if isinstance(e, bool) or not isinstance(e, (int, float)) or not 0 < e <= 1:
-                reader.error("an emissivity outside (0, 1]", f"{key}.emissivity",
-                             expected="a number greater than 0 and at most 1", found=repr(em))
+                reader.error(
+                    "an emissivity outside (0, 1]",
+                    f"{key}.emissivity",
+                    expected="a number greater than 0 and at most 1",
+                    found=repr(em),
+                )
                 out.append(0.05)
             else:
                 out.append(float(e))
@@ -775,13 +942,18 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         if "layers" in raw:
             layers = raw["layers"]
             if isinstance(layers, bool) or not isinstance(layers, int) or layers < 0:
-                reader.error("not a number of layers", f"{key}.layers",
-                             expected="a whole number of 0 or more", found=repr(layers))
+                reader.error(
+                    "not a number of layers",
+                    f"{key}.layers",
+                    expected="a whole number of 0 or more",
+                    found=repr(layers),
+                )
             else:
                 v["layers"] = layers
         v["area_ratio"] = reader.fraction(raw, "area_ratio", key, 0.0)
-        v["layer_density"] = reader.quantity(raw, "layer_density", key, "per length",
-                                             positive=True)
+        v["layer_density"] = reader.quantity(
+            raw, "layer_density", key, "per length", positive=True
+        )
     elif kind in ("support", "wire", "neck"):
         mat = reader.required(raw, "material", key)
         mat_id = _known_material(reader, mat, f"{key}.material") if mat is not None else None
@@ -789,9 +961,12 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
             from .library import material
 
             if not material(mat_id).has_conductivity:
-                reader.error(f"'{mat_id}' has no thermal-conductivity data", f"{key}.material",
-                             expected="a material with conductivity data",
-                             found=repr(mat))
+                reader.error(
+                    f"'{mat_id}' has no thermal-conductivity data",
+                    f"{key}.material",
+                    expected="a material with conductivity data",
+                    found=repr(mat),
+                )
         v["material"] = mat_id
         v["length"] = reader.quantity(raw, "length", key, "length", required=True, positive=True)
         v["count"] = reader.count(raw, "count", key, 1)
@@ -799,32 +974,41 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
             if "gauge" in raw:
                 g = raw["gauge"]
                 if isinstance(g, bool) or not isinstance(g, int) or not 0 <= g <= 50:
-                    reader.error("not a wire gauge", f"{key}.gauge",
-                                 expected="an AWG number from 0 to 50", found=repr(g))
+                    reader.error(
+                        "not a wire gauge",
+                        f"{key}.gauge",
+                        expected="an AWG number from 0 to 50",
+                        found=repr(g),
+                    )
                 v["gauge"] = g
             else:
-                v["diameter"] = reader.quantity(raw, "diameter", key, "length", required=True,
-                                                positive=True)
+                v["diameter"] = reader.quantity(
+                    raw, "diameter", key, "length", required=True, positive=True
+                )
         else:
             if "diameter" in raw and "area" not in raw:
                 d = reader.quantity(raw, "diameter", key, "length", positive=True)
                 v["area"] = None if d is None else math.pi / 4 * d * d
             else:
-                v["area"] = reader.quantity(raw, "area", key, "area", required=True,
-                                            positive=True)
+                v["area"] = reader.quantity(raw, "area", key, "area", required=True, positive=True)
         v["rrr"] = None
         if "rrr" in raw:
             r = raw["rrr"]
             if isinstance(r, bool) or not isinstance(r, (int, float)) or r < 1:
-                reader.error("not a residual-resistance ratio", f"{key}.rrr",
-                             expected="a number of 1 or more", found=repr(r))
+                reader.error(
+                    "not a residual-resistance ratio",
+                    f"{key}.rrr",
+                    expected="a number of 1 or more",
+                    found=repr(r),
+                )
             else:
                 v["rrr"] = float(r)
         via = []
         for j, name in enumerate(reader.array(raw.get("via", []), f"{key}.via")):
             if name not in temps:
-                reader.errors.append(UnknownNameError("stage", str(name), list(temps),
-                                                      **reader.where(f"{key}.via")))
+                reader.errors.append(
+                    UnknownNameError("stage", str(name), list(temps), **reader.where(f"{key}.via"))
+                )
             else:
                 via.append(name)
             del j
@@ -832,12 +1016,17 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         if kind == "neck":
             v["vapor_cooled"] = bool(raw.get("vapor_cooled", False))
     elif kind == "lead":
-        v["current"] = reader.quantity(raw, "current", key, "current", required=True,
-                                       nonnegative=True)
+        v["current"] = reader.quantity(
+            raw, "current", key, "current", required=True, nonnegative=True
+        )
         cooling = raw.get("cooling", "conduction")
         if cooling not in ("conduction", "vapor"):
-            reader.error("unknown cooling of a lead", f"{key}.cooling",
-                         expected="'conduction' or 'vapor'", found=repr(cooling))
+            reader.error(
+                "unknown cooling of a lead",
+                f"{key}.cooling",
+                expected="'conduction' or 'vapor'",
+                found=repr(cooling),
+            )
         v["cooling"] = cooling
         v["count"] = reader.count(raw, "count", key, 2)
         v["length"] = reader.quantity(raw, "length", key, "length", positive=True)
@@ -845,8 +1034,9 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         v["material"] = raw.get("material", "copper")
     elif kind == "gas":
         v["area"] = reader.quantity(raw, "area", key, "area", required=True, positive=True)
-        v["pressure"] = reader.quantity(raw, "pressure", key, "pressure", required=True,
-                                        positive=True)
+        v["pressure"] = reader.quantity(
+            raw, "pressure", key, "pressure", required=True, positive=True
+        )
         v["gas"] = raw.get("gas", "helium")
         v["accommodation"] = reader.fraction(raw, "accommodation", key, None)
     return v if len(reader.errors) == n_errors else None
@@ -869,39 +1059,64 @@ def _cooler(reader: _Reader, raw, stages: list[Stage]) -> Cooler | None:
         reader.keys(sraw, COOLER_STAGE_KEYS, skey)
         stage = reader.text(sraw, "stage", skey, required=True)
         if stage is not None and stage not in names:
-            reader.errors.append(UnknownNameError("stage", stage, sorted(names),
-                                                  **reader.where(f"{skey}.stage")))
+            reader.errors.append(
+                UnknownNameError("stage", stage, sorted(names), **reader.where(f"{skey}.stage"))
+            )
             continue
         cap = sraw.get("capacity")
         cmap = sraw.get("map")
         if cap is None and cmap is None:
-            reader.error("the stage's capacity is missing", f"{skey}.capacity",
-                         expected="capacity = [[K, W], ...] or a map", found="nothing")
+            reader.error(
+                "the stage's capacity is missing",
+                f"{skey}.capacity",
+                expected="capacity = [[K, W], ...] or a map",
+                found="nothing",
+            )
             continue
         if cap is not None:
-            ok = isinstance(cap, list) and len(cap) >= 1 and all(
-                isinstance(p, list) and len(p) == 2
-                and all(isinstance(x, (int, float)) and not isinstance(x, bool) for x in p)
-                for p in cap)
+            ok = (
+                isinstance(cap, list)
+                and len(cap) >= 1
+                and all(
+                    isinstance(p, list)
+                    and len(p) == 2
+                    and all(isinstance(x, (int, float)) and not isinstance(x, bool) for x in p)
+                    for p in cap
+                )
+            )
             if not ok:
-                reader.error("not a capacity table", f"{skey}.capacity",
-                             expected="a list of [K, W] pairs such as [[4.2, 1.5], [10, 5]]",
-                             found=repr(cap))
+                reader.error(
+                    "not a capacity table",
+                    f"{skey}.capacity",
+                    expected="a list of [K, W] pairs such as [[4.2, 1.5], [10, 5]]",
+                    found=repr(cap),
+                )
                 continue
             ks = [p[0] for p in cap]
             if any(b <= a for a, b in zip(ks, ks[1:])):
-                reader.error("capacity temperatures not increasing", f"{skey}.capacity",
-                             expected="[K, W] pairs in increasing K", found=repr(cap))
+                reader.error(
+                    "capacity temperatures not increasing",
+                    f"{skey}.capacity",
+                    expected="[K, W] pairs in increasing K",
+                    found=repr(cap),
+                )
                 continue
             if any(p[1] < 0 for p in cap) or any(p[0] <= 0 for p in cap):
-                reader.error("a negative capacity or temperature", f"{skey}.capacity",
-                             expected="K > 0 and W >= 0", found=repr(cap))
+                reader.error(
+                    "a negative capacity or temperature",
+                    f"{skey}.capacity",
+                    expected="K > 0 and W >= 0",
+                    found=repr(cap),
+                )
                 continue
             cap = [[float(a), float(b)] for a, b in cap]
         if cmap is not None and not isinstance(cmap, dict):
-            reader.error("not a capacity map", f"{skey}.map",
-                         expected="a table with 'first', 'second' and 'power'",
-                         found=repr(cmap))
+            reader.error(
+                "not a capacity map",
+                f"{skey}.map",
+                expected="a table with 'first', 'second' and 'power'",
+                found=repr(cmap),
+            )
             continue
         if stage is not None:
             cstages.append(CoolerStage(stage, cap, cmap, skey, reader.lines.line_of(skey)))
@@ -911,27 +1126,39 @@ def _cooler(reader: _Reader, raw, stages: list[Stage]) -> Cooler | None:
         lraw = reader.table(lraw, lkey)
         reader.keys(lraw, LINK_KEYS, lkey)
         between = lraw.get("between")
-        if not (isinstance(between, list) and len(between) == 2
-                and all(b in names for b in between)):
-            reader.error("a link names two stages", f"{lkey}.between",
-                         expected="two stage names", found=repr(between))
+        if not (
+            isinstance(between, list) and len(between) == 2 and all(b in names for b in between)
+        ):
+            reader.error(
+                "a link names two stages",
+                f"{lkey}.between",
+                expected="two stage names",
+                found=repr(between),
+            )
             continue
         link = {"between": between}
         if "conductance" in lraw:
-            link["conductance"] = reader.quantity(lraw, "conductance", lkey,
-                                                  "thermal conductance", positive=True)
+            link["conductance"] = reader.quantity(
+                lraw, "conductance", lkey, "thermal conductance", positive=True
+            )
         else:
             mat = reader.required(lraw, "material", lkey)
             link["material"] = _known_material(reader, mat, f"{lkey}.material") if mat else None
-            link["area"] = reader.quantity(lraw, "area", lkey, "area", required=True,
-                                           positive=True)
-            link["length"] = reader.quantity(lraw, "length", lkey, "length", required=True,
-                                             positive=True)
+            link["area"] = reader.quantity(
+                lraw, "area", lkey, "area", required=True, positive=True
+            )
+            link["length"] = reader.quantity(
+                lraw, "length", lkey, "length", required=True, positive=True
+            )
             link["count"] = reader.count(lraw, "count", lkey, 1)
         links.append(link)
     if not cstages and not reader.errors:
-        reader.error("the cooler has no stage", "cooler.stage",
-                     expected="at least one [[cooler.stage]]", found="none")
+        reader.error(
+            "the cooler has no stage",
+            "cooler.stage",
+            expected="at least one [[cooler.stage]]",
+            found="none",
+        )
     return Cooler(power, pc, cstages, links, max_time or 60 * 86400.0)
 
 
@@ -944,7 +1171,9 @@ def _rooms(reader: _Reader, raw) -> list[Room]:
         key = "room" if not isinstance(raw, list) else f"room[{i}]"
         rraw = reader.table(rraw, key)
         reader.keys(rraw, ROOM_KEYS, key)
-        name = reader.text(rraw, "name", key, default="room" if len(raws) == 1 else f"room {i+1}")
+        name = reader.text(
+            rraw, "name", key, default="room" if len(raws) == 1 else f"room {i + 1}"
+        )
         volume = reader.quantity(rraw, "volume", key, "volume", required=True, positive=True)
         vent = 0.0
         if "ventilation" in rraw:
@@ -957,13 +1186,20 @@ def _rooms(reader: _Reader, raw) -> list[Room]:
                 except InputError:
                     vent = units.parse_quantity(text, "flow", **reader.where(path))
                 if vent < 0:
-                    reader.error("a negative ventilation", path,
-                                 expected="air changes such as '2 /h' or a flow such as "
-                                 "'300 m^3/h', zero or more", found=repr(text))
+                    reader.error(
+                        "a negative ventilation",
+                        path,
+                        expected="air changes such as '2 /h' or a flow such as "
+                        "'300 m^3/h', zero or more",
+                        found=repr(text),
+                    )
             except InputError:
-                reader.error("not a ventilation rate", path,
-                             expected="air changes such as '2 /h' or a flow such as '300 m^3/h'",
-                             found=repr(text))
+                reader.error(
+                    "not a ventilation rate",
+                    path,
+                    expected="air changes such as '2 /h' or a flow such as '300 m^3/h'",
+                    found=repr(text),
+                )
         alarm = 19.5
         if "alarm" in rraw:
             a = rraw["alarm"]
@@ -976,13 +1212,17 @@ def _rooms(reader: _Reader, raw) -> list[Room]:
             elif isinstance(a, (int, float)) and not isinstance(a, bool):
                 value = float(a)
             if value is None or not 0 < value < 20.9:
-                reader.error("an alarm level outside 0..20.9 %", f"{key}.alarm",
-                             expected="an oxygen level such as '19 %' or 18.0",
-                             found=repr(a))
+                reader.error(
+                    "an alarm level outside 0..20.9 %",
+                    f"{key}.alarm",
+                    expected="an oxygen level such as '19 %' or 18.0",
+                    found=repr(a),
+                )
             else:
                 alarm = value
-        temperature = reader.quantity(rraw, "temperature", key, "temperature", default=293.15,
-                                      positive=True)
+        temperature = reader.quantity(
+            rraw, "temperature", key, "temperature", default=293.15, positive=True
+        )
         vessels = []
         for j, vraw in enumerate(reader.array(rraw.get("vessel"), f"{key}.vessel")):
             vkey = f"{key}.vessel[{j}]"
@@ -1002,30 +1242,62 @@ def _rooms(reader: _Reader, raw) -> list[Room]:
             qf = reader.fraction(vraw, "quench_fraction", vkey, 1.0)
             vname = reader.text(vraw, "name", vkey, default=f"{cry} vessel {j + 1}")
             if cry is not None and liquid is not None:
-                vessels.append(Vessel(vname, cry, liquid, boiloff, fail, quench, qt or 30.0,
-                                      qf, vkey, reader.lines.line_of(vkey)))
+                vessels.append(
+                    Vessel(
+                        vname,
+                        cry,
+                        liquid,
+                        boiloff,
+                        fail,
+                        quench,
+                        qt or 30.0,
+                        qf,
+                        vkey,
+                        reader.lines.line_of(vkey),
+                    )
+                )
         include = bool(rraw.get("include_baths", i == 0))
         quench = bool(rraw.get("quench", False))
         qt = reader.quantity(rraw, "quench_time", key, "time", default=30.0, positive=True)
         qf = reader.fraction(rraw, "quench_fraction", key, 1.0)
         if volume is not None:
-            rooms.append(Room(name, volume, vent, alarm, temperature or 293.15, vessels,
-                              include, quench, qt or 30.0, qf, key, reader.lines.line_of(key)))
+            rooms.append(
+                Room(
+                    name,
+                    volume,
+                    vent,
+                    alarm,
+                    temperature or 293.15,
+                    vessels,
+                    include,
+                    quench,
+                    qt or 30.0,
+                    qf,
+                    key,
+                    reader.lines.line_of(key),
+                )
+            )
     return rooms
 
 
 # --- entry points -----------------------------------------------------------------------
+
 
 def read_text(path: str) -> str:
     try:
         with open(path, encoding="utf-8") as fh:
             return fh.read()
     except FileNotFoundError:
-        raise InputError("no such plan file", file=path, expected="an existing TOML file",
-                         found="nothing at that path") from None
+        raise InputError(
+            "no such plan file",
+            file=path,
+            expected="an existing TOML file",
+            found="nothing at that path",
+        ) from None
     except (IsADirectoryError, PermissionError, UnicodeDecodeError) as exc:
-        raise InputError(f"cannot read the plan file ({exc.__class__.__name__})",
-                         file=path) from None
+        raise InputError(
+            f"cannot read the plan file ({exc.__class__.__name__})", file=path
+        ) from None
 
 
 def parse_plan(text: str, path: str = "<plan>") -> Plan:
@@ -1040,8 +1312,13 @@ def parse_plan(text: str, path: str = "<plan>") -> Plan:
                 line = int(msg.split("line ")[1].split(",")[0].split(")")[0])
             except (ValueError, IndexError):
                 line = None
-        raise InputError(f"not valid TOML: {msg}", file=path, line=line,
-                         expected="TOML syntax", found="a syntax error") from None
+        raise InputError(
+            f"not valid TOML: {msg}",
+            file=path,
+            line=line,
+            expected="TOML syntax",
+            found="a syntax error",
+        ) from None
     reader = _Reader(path, text)
     reader.keys(data, TOP_KEYS, "")
     title = data.get("title", os.path.splitext(os.path.basename(path))[0])
@@ -1079,19 +1356,43 @@ def parse_plan(text: str, path: str = "<plan>") -> Plan:
             try:
                 start_date = _dt.date.fromisoformat(str(value))
             except ValueError:
-                reader.error("not a date", "operation.start_date",
-                             expected="a date such as 2027-01-11", found=repr(value))
+                reader.error(
+                    "not a date",
+                    "operation.start_date",
+                    expected="a date such as 2027-01-11",
+                    found=repr(value),
+                )
     days = operation.get("days", 30)
     if isinstance(days, bool) or not isinstance(days, (int, float)) or days <= 0:
-        reader.error("not a number of days", "operation.days",
-                     expected="a positive number of days", found=repr(days))
+        reader.error(
+            "not a number of days",
+            "operation.days",
+            expected="a positive number of days",
+            found=repr(days),
+        )
         days = 30
     if reader.errors:
         if len(reader.errors) == 1:
             raise reader.errors[0]
         raise InputErrors(reader.errors)
-    return Plan(path, title, ambient, stages, cooldown, baths, supplies, inserts, loads,
-                cooler, rooms, mass_margin, start_date, float(days), notes, text)
+    return Plan(
+        path,
+        title,
+        ambient,
+        stages,
+        cooldown,
+        baths,
+        supplies,
+        inserts,
+        loads,
+        cooler,
+        rooms,
+        mass_margin,
+        start_date,
+        float(days),
+        notes,
+        text,
+    )
 
 
 def load_plan(path) -> Plan:

@@ -55,7 +55,7 @@ class LineFinder:
             indexed = [k for k in self.tables if k.startswith(candidate + "[")]
             if indexed:
                 last = max(indexed, key=lambda k: self.tables[k])
-                out.append(last[len(".".join(out)) + (1 if out else 0):])
+                out.append(last[len(".".join(out)) + (1 if out else 0) :])
             else:
                 out.append(part)
         return ".".join(out)

@@ -13,7 +13,9 @@ from functools import lru_cache
 from .errors import InputError
 
 _NUMBER = re.compile(r"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
-_PRICE = re.compile(r"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z]{3})\s*/\s*(.+?)\s*$")
+_PRICE = re.compile(
+    r"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z]{3})\s*/\s*(.+?)\s*$"
+)
 
 #: Dimensions by the name used in messages, with the SI unit values are converted to.
 DIMENSIONS: dict[str, tuple[str, str]] = {
@@ -108,9 +110,7 @@ def parse_quantity(text, dimension: str, **where) -> float:
     if isinstance(text, bool) or not isinstance(text, (str, int, float)):
         raise InputError("not a quantity", expected=expected, found=repr(text), **where)
     if isinstance(text, (int, float)):
-        raise InputError(
-            "a number without units", expected=expected, found=repr(text), **where
-        )
+        raise InputError("a number without units", expected=expected, found=repr(text), **where)
     match = _NUMBER.match(text)
     if not match:
         raise InputError("not a number with units", expected=expected, found=repr(text), **where)
@@ -124,8 +124,14 @@ def parse_quantity(text, dimension: str, **where) -> float:
         unit = "1 " + unit
     try:
         quantity = ureg.Quantity(number, unit)
-    except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
-            TypeError, ValueError, SyntaxError) as exc:
+    except (
+        pint.errors.UndefinedUnitError,
+        pint.errors.DefinitionSyntaxError,
+        AttributeError,
+        TypeError,
+        ValueError,
+        SyntaxError,
+    ) as exc:
         bad = getattr(exc, "unit_names", None) or unit
         if isinstance(bad, (tuple, list)):
             bad = ", ".join(bad)
@@ -199,7 +205,9 @@ def parse_fraction(value, low: float = 0.0, high: float = 1.0, **where) -> float
         try:
             value = float(value.strip()[:-1]) / 100.0
         except ValueError:
-            raise InputError("not a fraction", expected=expected, found=repr(value), **where) from None
+            raise InputError(
+                "not a fraction", expected=expected, found=repr(value), **where
+            ) from None
     if isinstance(value, bool) or not isinstance(value, (int, float)):
         raise InputError("not a number", expected=expected, found=repr(value), **where)
     value = float(value)

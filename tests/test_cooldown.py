@@ -30,8 +30,7 @@ HANDBOOK = [
 
 
 @pytest.mark.parametrize("mat, cry, t1, t2, latent, enthalpy", HANDBOOK)
-def test_litres_to_cool_one_kilogram_match_the_handbook_table(mat, cry, t1, t2, latent,
-                                                              enthalpy):
+def test_litres_to_cool_one_kilogram_match_the_handbook_table(mat, cry, t1, t2, latent, enthalpy):
     c = cryoplan.cryogen(cry)
     t2 = max(t2, c.boiling_point)
     got_latent = cryoplan.liquid_for_cooldown(mat, 1.0, t1, t2, cry, gas_use=0.0)
@@ -47,16 +46,18 @@ def test_litres_to_cool_one_kilogram_match_the_handbook_table(mat, cry, t1, t2, 
 
 def test_constant_heat_capacity_exact():
     # c constant and latent heat only: m c dT / L exactly (closed form)
-    kg = cryogen_mass_for_cooldown(lambda T: 0 * T + 385.0, 2.0, 300.0, 77.0, 199e3,
-                                   lambda T: 0 * T, 0.0)
+    kg = cryogen_mass_for_cooldown(
+        lambda T: 0 * T + 385.0, 2.0, 300.0, 77.0, 199e3, lambda T: 0 * T, 0.0
+    )
     assert kg == pytest.approx(2.0 * 385.0 * 223.0 / 199e3, rel=1e-12)
 
 
 def test_full_gas_use_with_ideal_gas_closed_form():
     # c constant, h_v = cp (T - Tb): m c ln((L + cp (T1 - Tb)) / (L + cp (T2 - Tb))) / cp
     cp, L, tb, c = 5193.0, 20.7e3, 4.22, 100.0
-    kg = cryogen_mass_for_cooldown(lambda T: 0 * T + c, 1.0, 300.0, 4.22, L,
-                                   lambda T: cp * (T - tb), 1.0)
+    kg = cryogen_mass_for_cooldown(
+        lambda T: 0 * T + c, 1.0, 300.0, 4.22, L, lambda T: cp * (T - tb), 1.0
+    )
     exact = c / cp * np.log((L + cp * (300.0 - tb)) / L)
     assert kg == pytest.approx(exact, rel=1e-6)
 
@@ -67,12 +68,20 @@ def test_cooldown_quadrature_matches_scipy_quad_on_real_data():
     tb = he.boiling_point
 
     def integrand(T):
-        return float(m.specific_heat(T)) / (he.latent_heat + 0.5 * float(
-            he.vapor_enthalpy(max(T, tb))))
+        return float(m.specific_heat(T)) / (
+            he.latent_heat + 0.5 * float(he.vapor_enthalpy(max(T, tb)))
+        )
 
     ref, _ = integrate.quad(integrand, tb, 300.0, limit=200, epsabs=0, epsrel=1e-10)
-    got = cryogen_mass_for_cooldown(m.specific_heat, 1.0, 300.0, tb, he.latent_heat,
-                                    lambda T: he.vapor_enthalpy(np.maximum(T, tb)), 0.5)
+    got = cryogen_mass_for_cooldown(
+        m.specific_heat,
+        1.0,
+        300.0,
+        tb,
+        he.latent_heat,
+        lambda T: he.vapor_enthalpy(np.maximum(T, tb)),
+        0.5,
+    )
     assert got == pytest.approx(ref, rel=1e-5)  # fixed-order quadrature vs adaptive
 
 
@@ -82,8 +91,14 @@ def test_minimum_work_identity_against_direct_quadrature():
     for mat in ("copper", "stainless-304", "g10-cr"):
         m = cryoplan.material(mat)
         t0 = 300.0
-        ref, _ = integrate.quad(lambda T: (t0 / T - 1.0) * float(m.specific_heat(T)), 4.2,
-                                300.0, limit=200, epsrel=1e-10, points=[10, 20, 77])
+        ref, _ = integrate.quad(
+            lambda T, m=m, t0=t0: (t0 / T - 1.0) * float(m.specific_heat(T)),
+            4.2,
+            300.0,
+            limit=200,
+            epsrel=1e-10,
+            points=[10, 20, 77],
+        )
         got = cryoplan.minimum_work(mat, 1.0, 300.0, 4.2, t0)
         assert got == pytest.approx(ref, rel=2e-4)  # table interpolation in H and S
 

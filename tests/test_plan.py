@@ -57,7 +57,8 @@ def test_core_schema_loads_as_written():
 
 def test_units_are_parsed_with_pint():
     text = CORE.replace('mass = "14 kg"', 'mass = "500 g"').replace(
-        'ambient = "293 K"', 'ambient = "20 degC"')
+        'ambient = "293 K"', 'ambient = "20 degC"'
+    )
     plan = parse_plan(text, "plan.toml")
     assert plan.stage("cold plate").parts[0].mass == pytest.approx(0.5)
     assert plan.ambient == pytest.approx(293.15)  # exact definition of the Celsius scale
@@ -68,7 +69,8 @@ def test_part_by_dimensions_uses_the_density():
 
     text = CORE.replace(
         '{ name = "former",   material = "stainless-304",    mass = "22 kg" }',
-        '{ name = "block", material = "copper", dimensions = ["100 mm", "50 mm", "10 mm"] }')
+        '{ name = "block", material = "copper", dimensions = ["100 mm", "50 mm", "10 mm"] }',
+    )
     plan = parse_plan(text, "plan.toml")
     block = plan.stage("cold plate").parts[1]
     assert block.mass == pytest.approx(5e-5 * material("copper").density)  # V * rho, exact
@@ -81,17 +83,24 @@ def test_part_by_dimensions_uses_the_density():
         ('mass = "14 kg"', 'mass = "0 kg"', "stage[0].parts[0].mass", "not positive"),
         ('mass = "14 kg"', 'mass = "14 K"', "stage[0].parts[0].mass", "wrong kind"),
         ('mass = "14 kg"', 'mass = "10 kgs"', "stage[0].parts[0].mass", "unknown unit"),
-        ('temperature = "4.2 K"', 'temperature = "-4 K"', "stage[0].temperature",
-         "below absolute zero"),
-        ('gas_use = 0.4', 'gas_use = 1.4', "cooldown.steps[0].gas_use", "out of range"),
-        ('"nbti-copper-wire"', '"nbti-coper-wire"', "stage[0].parts[0].material",
-         "did you mean"),
-        ('cryogen = "nitrogen"', 'cryogen = "nitrogn"', "cooldown.steps[0].cryogen",
-         "did you mean 'nitrogen'"),
+        (
+            'temperature = "4.2 K"',
+            'temperature = "-4 K"',
+            "stage[0].temperature",
+            "below absolute zero",
+        ),
+        ("gas_use = 0.4", "gas_use = 1.4", "cooldown.steps[0].gas_use", "out of range"),
+        ('"nbti-copper-wire"', '"nbti-coper-wire"', "stage[0].parts[0].material", "did you mean"),
+        (
+            'cryogen = "nitrogen"',
+            'cryogen = "nitrogn"',
+            "cooldown.steps[0].cryogen",
+            "did you mean 'nitrogen'",
+        ),
         ('to = "80 K"', 'to = "20 K"', "cooldown.steps[0].to", "boils at 77"),
         ('to = "80 K"', 'to = "310 K"', "cooldown.steps[0].to", "above where the parts are"),
         ('ambient = "293 K"', 'ambiant = "293 K"', "ambiant", "did you mean 'ambient'"),
-        ('name = "cold plate"\n', '', "stage[0].name", "missing"),
+        ('name = "cold plate"\n', "", "stage[0].name", "missing"),
     ],
 )
 def test_bad_input_names_file_line_key_expected_found(old, new, key, words):
@@ -118,8 +127,7 @@ def test_broken_toml_names_the_line():
 
 
 def test_several_mistakes_reported_together():
-    text = CORE.replace('mass = "14 kg"', 'mass = "-1 kg"').replace("gas_use = 0.5",
-                                                                    "gas_use = 2")
+    text = CORE.replace('mass = "14 kg"', 'mass = "-1 kg"').replace("gas_use = 0.5", "gas_use = 2")
     errs = errors_of(text)
     assert len(errs) >= 2
     assert {e.key for e in errs} >= {"stage[0].parts[0].mass", "cooldown.steps[1].gas_use"}
@@ -136,7 +144,14 @@ def test_every_example_loads_and_evaluates():
     for path in paths:
         results = cryoplan.evaluate(cryoplan.load_plan(path))
         summary = results.to_dict()["summary"]
-        for key in ("cooldown_liquid_L", "order_L", "static_boiloff_L_per_day", "hold_time_h",
-                    "minimum_work_J", "cooldown_time_h", "lowest_oxygen_percent"):
+        for key in (
+            "cooldown_liquid_L",
+            "order_L",
+            "static_boiloff_L_per_day",
+            "hold_time_h",
+            "minimum_work_J",
+            "cooldown_time_h",
+            "lowest_oxygen_percent",
+        ):
             assert key in summary
         assert summary["minimum_work_J"] > 0

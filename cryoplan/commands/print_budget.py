@@ -12,13 +12,17 @@ FORMATS = ("text", "markdown", "json", "pdf", "csv")
 
 
 def register(sub) -> None:
-    p = sub.add_parser("print", help="print the budget of a plan (text, markdown, json, pdf, csv)",
-                       description="Print the cooldown budget, loads, refrigeration and room "
-                       "checks of a plan file.")
+    p = sub.add_parser(
+        "print",
+        help="print the budget of a plan (text, markdown, json, pdf, csv)",
+        description="Print the cooldown budget, loads, refrigeration and room "
+        "checks of a plan file.",
+    )
     p.add_argument("plan", nargs="?", help="a plan file (TOML)")
     p.add_argument("--demo", action="store_true", help="print the bundled demo plan")
-    p.add_argument("--format", "-f", default="text", choices=FORMATS,
-                   help="output format (default: text)")
+    p.add_argument(
+        "--format", "-f", default="text", choices=FORMATS, help="output format (default: text)"
+    )
     p.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
     p.add_argument("--width", type=int, default=80, help="text width in columns (default 80)")
     p.add_argument("--paper", default="a4", help="paper size for PDF: a4 or letter")
@@ -33,8 +37,7 @@ def plan_path(args) -> str:
         if args.plan and args.demo:
             raise InputError("give a plan file or --demo, not both", key="--demo")
         if not args.demo and not args.plan:
-            raise InputError("no plan given", expected="a plan file, or --demo",
-                             found="nothing")
+            raise InputError("no plan given", expected="a plan file, or --demo", found="nothing")
         return demo_plan_path()
     return args.plan
 
@@ -43,8 +46,12 @@ def write_atomic(path: str, payload: bytes) -> None:
     """Write a file whole or not at all: a temporary file in the same folder, then a rename."""
     folder = os.path.dirname(os.path.abspath(path)) or "."
     if not os.path.isdir(folder):
-        raise InputError("cannot write the output", file=path,
-                         expected="a file in an existing folder", found="no such folder")
+        raise InputError(
+            "cannot write the output",
+            file=path,
+            expected="a file in an existing folder",
+            found="no such folder",
+        )
     try:
         fd, tmp = tempfile.mkstemp(prefix=".cryoplan-", dir=folder)
     except OSError as exc:
@@ -68,8 +75,12 @@ def run(args) -> int:
 
     path = plan_path(args)
     if args.width < 60:
-        raise InputError("the text width is too small", key="--width",
-                         expected="60 columns or more", found=str(args.width))
+        raise InputError(
+            "the text width is too small",
+            key="--width",
+            expected="60 columns or more",
+            found=str(args.width),
+        )
     results = evaluate(load_plan(path))
     data = results.to_dict()
     if args.curve:
@@ -80,8 +91,9 @@ def run(args) -> int:
         from ..report.pdf import render_pdf
 
         if not args.output:
-            raise InputError("a PDF needs an output file", key="-o",
-                             expected="-o FILE.pdf", found="nothing")
+            raise InputError(
+                "a PDF needs an output file", key="-o", expected="-o FILE.pdf", found="nothing"
+            )
         payload = render_pdf(data, paper=args.paper)
         write_atomic(args.output, payload)
         return 0
@@ -89,8 +101,9 @@ def run(args) -> int:
         from ..report.export import write_csv_folder
 
         if not args.output:
-            raise InputError("CSV tables need an output folder", key="-o",
-                             expected="-o FOLDER", found="nothing")
+            raise InputError(
+                "CSV tables need an output folder", key="-o", expected="-o FOLDER", found="nothing"
+            )
         write_csv_folder(data, args.output)
         return 0
     text = render(data, args.format, width=args.width)

@@ -2,8 +2,19 @@
 
 from __future__ import annotations
 
-from .document import Bullets, Chart, Heading, Paragraph, Table, duration_h, energy, litres, \
-    money, sig
+from .document import (
+    Bullets,
+    Chart,
+    Heading,
+    Paragraph,
+    Table,
+    duration_h,
+    energy,
+    litres,
+    money,
+    sig,
+)
+
 
 def _sections() -> list:
     from .sections import loads_section, refrigeration_section, rooms_section
@@ -18,13 +29,22 @@ def _summary(data: dict) -> list:
         rows.append([f"Cooldown liquid, {cry}", f"{litres(v)} L"])
     for cry, v in s["order_L"].items():
         rng = data["order"][cry]["range"]
-        rows.append([f"Order, {cry}", f"{litres(v)} L  (low {litres(rng['low']['order_L'])},"
-                     f" high {litres(rng['high']['order_L'])})"])
+        rows.append(
+            [
+                f"Order, {cry}",
+                f"{litres(v)} L  (low {litres(rng['low']['order_L'])},"
+                f" high {litres(rng['high']['order_L'])})",
+            ]
+        )
     for cry, v in s.get("cost", {}).items():
         rows.append([f"Cost, {cry}", money(v, s.get("currency", ""))])
     rows.append(["Heat to remove", energy(s.get("heat_J"))])
-    rows.append(["Minimum work (reversible)", energy(s["minimum_work_J"])
-                 + f" = {sig(s['minimum_work_J'] / 3.6e6)} kWh"])
+    rows.append(
+        [
+            "Minimum work (reversible)",
+            energy(s["minimum_work_J"]) + f" = {sig(s['minimum_work_J'] / 3.6e6)} kWh",
+        ]
+    )
     for cry, v in s.get("static_boiloff_L_per_day", {}).items():
         rows.append([f"Static boil-off, {cry}", f"{litres(v)} L/day"])
     for cry, v in s.get("hold_time_h", {}).items():
@@ -40,69 +60,138 @@ def _cold_mass(data: dict) -> list:
     rows = []
     for st in data["cold_mass"]:
         for p in st["parts"]:
-            rows.append([st["stage"], f"{st['temperature_K']:g}", p["name"], p["material"],
-                         sig(p["mass_kg"]), f"{p['start_K']:g}"])
-    return [Heading("Cold mass"),
-            Table(["Stage", "T [K]", "Part", "Material", "Mass [kg]", "Start [K]"], rows,
-                  "lrllrr", name="cold_mass")]
+            rows.append(
+                [
+                    st["stage"],
+                    f"{st['temperature_K']:g}",
+                    p["name"],
+                    p["material"],
+                    sig(p["mass_kg"]),
+                    f"{p['start_K']:g}",
+                ]
+            )
+    return [
+        Heading("Cold mass"),
+        Table(
+            ["Stage", "T [K]", "Part", "Material", "Mass [kg]", "Start [K]"],
+            rows,
+            "lrllrr",
+            name="cold_mass",
+        ),
+    ]
 
 
 def _budget(data: dict) -> list:
     b = data["budget"]
     bands = b["bands"]
-    blocks: list = [Heading("Cooldown budget by temperature band"),
-                    Paragraph("Heat and entropy to remove from the cold mass, and the minimum "
-                              "(reversible) work of removing them against the ambient.")]
-    for label, key, fmt in (("Heat to remove", "heat_J", energy),
-                            ("Entropy to remove [J/K]", "entropy_J_per_K", sig),
-                            ("Minimum work", "work_J", energy)):
+    blocks: list = [
+        Heading("Cooldown budget by temperature band"),
+        Paragraph(
+            "Heat and entropy to remove from the cold mass, and the minimum "
+            "(reversible) work of removing them against the ambient."
+        ),
+    ]
+    for label, key, fmt in (
+        ("Heat to remove", "heat_J", energy),
+        ("Entropy to remove [J/K]", "entropy_J_per_K", sig),
+        ("Minimum work", "work_J", energy),
+    ):
         rows = []
         for st in b["stages"]:
             rows.append([st["stage"]] + [fmt(v) for v in st[key]] + [fmt(sum(st[key]))])
         rows.append(["total"] + [fmt(v) for v in b["total"][key]] + [fmt(sum(b["total"][key]))])
-        blocks.append(Table(["Stage"] + bands + ["all"], rows, "lrrrrr", title=label,
-                            name=f"budget_{key}"))
+        blocks.append(
+            Table(["Stage"] + bands + ["all"], rows, "lrrrrr", title=label, name=f"budget_{key}")
+        )
     total_h = sum(b["total"]["heat_J"]) or 1.0
     total_w = sum(b["total"]["work_J"]) or 1.0
     heat, work = b["total"]["heat_J"], b["total"]["work_J"]
     shares = []
     for name, h, w in zip(bands, heat, work):
         if h > 0:
-            shares.append(f"{name}: {h / total_h * 100:.1f} % of the heat, "
-                          f"{w / total_w * 100:.1f} % of the work, {w / h:.2g} J of work per "
-                          "J of heat")
-    blocks.append(Paragraph("By band: " + "; ".join(shares) + ". The colder the band, the "
-                            "dearer each joule (T0/T - 1 per joule at T)."))
+            shares.append(
+                f"{name}: {h / total_h * 100:.1f} % of the heat, "
+                f"{w / total_w * 100:.1f} % of the work, {w / h:.2g} J of work per "
+                "J of heat"
+            )
+    blocks.append(
+        Paragraph(
+            "By band: " + "; ".join(shares) + ". The colder the band, the "
+            "dearer each joule (T0/T - 1 per joule at T)."
+        )
+    )
     return blocks
 
 
 def _steps(data: dict) -> list:
     if not data["steps"]:
-        return [Heading("Cooldown steps"),
-                Paragraph("No cryogen steps: a cooler does the cooling (see Refrigeration).")]
+        return [
+            Heading("Cooldown steps"),
+            Paragraph("No cryogen steps: a cooler does the cooling (see Refrigeration)."),
+        ]
     rows = []
     for s, r in zip(data["steps"], data["steps_range"]):
-        rows.append([str(s["step"]), s["cryogen"], f"{s['to_K']:.4g}", f"{s['gas_use']:g}",
-                     litres(r["low"]), litres(r["nominal"]), litres(r["high"])])
-    blocks = [Heading("Cooldown steps"),
-              Table(["Step", "Cryogen", "To [K]", "gas_use", "Low [L]", "Nominal [L]",
-                     "High [L]"], rows, "llrrrrr", name="steps"),
-              Paragraph("Liquid boiled by the cold mass alone: no transfer loss, no bath fill. "
-                        "Low uses the highest gas_use and lightest masses, high the reverse.")]
+        rows.append(
+            [
+                str(s["step"]),
+                s["cryogen"],
+                f"{s['to_K']:.4g}",
+                f"{s['gas_use']:g}",
+                litres(r["low"]),
+                litres(r["nominal"]),
+                litres(r["high"]),
+            ]
+        )
+    blocks = [
+        Heading("Cooldown steps"),
+        Table(
+            ["Step", "Cryogen", "To [K]", "gas_use", "Low [L]", "Nominal [L]", "High [L]"],
+            rows,
+            "llrrrrr",
+            name="steps",
+        ),
+        Paragraph(
+            "Liquid boiled by the cold mass alone: no transfer loss, no bath fill. "
+            "Low uses the highest gas_use and lightest masses, high the reverse."
+        ),
+    ]
     part_rows = []
     for s in data["steps"]:
         for p in s["parts"]:
-            part_rows.append([str(s["step"]), p["stage"], p["part"], f"{p['from_K']:.4g}",
-                              f"{p['to_K']:.4g}", litres(p["liquid_L"])])
+            part_rows.append(
+                [
+                    str(s["step"]),
+                    p["stage"],
+                    p["part"],
+                    f"{p['from_K']:.4g}",
+                    f"{p['to_K']:.4g}",
+                    litres(p["liquid_L"]),
+                ]
+            )
     if part_rows:
-        blocks.append(Table(["Step", "Stage", "Part", "From [K]", "To [K]", "Liquid [L]"],
-                            part_rows, "lllrrr", title="Liquid per part", name="steps_parts"))
+        blocks.append(
+            Table(
+                ["Step", "Stage", "Part", "From [K]", "To [K]", "Liquid [L]"],
+                part_rows,
+                "lllrrr",
+                title="Liquid per part",
+                name="steps_parts",
+            )
+        )
     curves = data.get("cumulative_liquid") or []
     if curves:
-        blocks.append(Chart("Cumulative liquid against temperature", "temperature [K]",
-                            "liquid boiled [L]",
-                            [(f"step {c['step']} ({c['cryogen']})", c["temperature_K"],
-                              c["liquid_L"]) for c in curves], name="cumulative_liquid"))
+        blocks.append(
+            Chart(
+                "Cumulative liquid against temperature",
+                "temperature [K]",
+                "liquid boiled [L]",
+                [
+                    (f"step {c['step']} ({c['cryogen']})", c["temperature_K"], c["liquid_L"])
+                    for c in curves
+                ],
+                name="cumulative_liquid",
+            )
+        )
     return blocks
 
 
@@ -112,31 +201,79 @@ def _order(data: dict) -> list:
     rows = []
     for cry, e in data["order"].items():
         dewars = ", ".join(f"{d['count']} x {d['size_L']:g} L" for d in e["dewars"]) or "-"
-        rows.append([cry, litres(e["cooldown_L"]), litres(e["bath_fill_L"]),
-                     litres(e["inserts_L"]), litres(e["transfer_loss_L"]), litres(e["heel_L"]),
-                     litres(e["order_L"]), money(e["cost"], e["currency"])])
-    blocks = [Heading("Order"),
-              Table(["Cryogen", "Cooldown", "Bath fill", "Inserts", "Transfer", "Heel",
-                     "Order [L]", "Cost"], rows, "lrrrrrrr", name="order")]
+        rows.append(
+            [
+                cry,
+                litres(e["cooldown_L"]),
+                litres(e["bath_fill_L"]),
+                litres(e["inserts_L"]),
+                litres(e["transfer_loss_L"]),
+                litres(e["heel_L"]),
+                litres(e["order_L"]),
+                money(e["cost"], e["currency"]),
+            ]
+        )
+    blocks = [
+        Heading("Order"),
+        Table(
+            [
+                "Cryogen",
+                "Cooldown",
+                "Bath fill",
+                "Inserts",
+                "Transfer",
+                "Heel",
+                "Order [L]",
+                "Cost",
+            ],
+            rows,
+            "lrrrrrrr",
+            name="order",
+        ),
+    ]
     drow = []
     for cry, e in data["order"].items():
         dewars = ", ".join(f"{d['count']} x {d['size_L']:g} L" for d in e["dewars"])
         rng = e["range"]
-        drow.append([cry, dewars or "(no dewar sizes given)",
-                     f"{litres(rng['low']['order_L'])} / {litres(e['order_L'])} / "
-                     f"{litres(rng['high']['order_L'])}",
-                     f"{money(rng['low']['cost'], e['currency'])} / "
-                     f"{money(rng['high']['cost'], e['currency'])}"])
-    blocks.append(Table(["Cryogen", "Dewars", "Low/nom/high [L]", "Cost low / high"], drow,
-                        "llrr", title="Dewars and range", name="dewars"))
+        drow.append(
+            [
+                cry,
+                dewars or "(no dewar sizes given)",
+                f"{litres(rng['low']['order_L'])} / {litres(e['order_L'])} / "
+                f"{litres(rng['high']['order_L'])}",
+                f"{money(rng['low']['cost'], e['currency'])} / "
+                f"{money(rng['high']['cost'], e['currency'])}",
+            ]
+        )
+    blocks.append(
+        Table(
+            ["Cryogen", "Dewars", "Low/nom/high [L]", "Cost low / high"],
+            drow,
+            "llrr",
+            title="Dewars and range",
+            name="dewars",
+        )
+    )
     liq = data.get("liquefaction", {})
     if liq:
-        rows = [[cry, sig(v["ideal_kWh"]), sig(v["real_kWh"]),
-                 "-" if v["percent_of_ideal"] is None else f"{v['percent_of_ideal']:.1f} %"]
-                for cry, v in liq.items()]
-        blocks.append(Table(["Cryogen", "Ideal [kWh]", "Real [kWh]", "Ideal/real"], rows,
-                            "lrrr", title="Embodied work of the liquid ordered (liquefaction "
-                            "from the ambient)", name="liquefaction"))
+        rows = [
+            [
+                cry,
+                sig(v["ideal_kWh"]),
+                sig(v["real_kWh"]),
+                "-" if v["percent_of_ideal"] is None else f"{v['percent_of_ideal']:.1f} %",
+            ]
+            for cry, v in liq.items()
+        ]
+        blocks.append(
+            Table(
+                ["Cryogen", "Ideal [kWh]", "Real [kWh]", "Ideal/real"],
+                rows,
+                "lrrr",
+                title="Embodied work of the liquid ordered (liquefaction from the ambient)",
+                name="liquefaction",
+            )
+        )
     return blocks
 
 

@@ -47,6 +47,7 @@ class Chart:
 
 # --- number formatting -------------------------------------------------------------------
 
+
 def sig(value, digits: int = 3) -> str:
     """A number to ``digits`` significant figures, no exponent for ordinary sizes.
 
@@ -58,7 +59,7 @@ def sig(value, digits: int = 3) -> str:
     value = float(value)
     if value == 0:
         return "0"
-    if abs(value) >= 10 ** digits or abs(value) < 1e-3:
+    if abs(value) >= 10**digits or abs(value) < 1e-3:
         if abs(value) >= 1e6 or abs(value) < 1e-3:
             return f"{value:.{digits - 1}e}"
         return f"{value:.0f}"

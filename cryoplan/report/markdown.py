@@ -12,9 +12,12 @@ def _cell(text) -> str:
 
 def render_markdown(data: dict, blocks) -> str:
     p = data["plan"]
-    out = [f"# Cryoplan budget: {p['title']}", "",
-           f"Plan file: `{p['file']}`  ", f"Printed {p['date']} by cryoplan "
-           f"{p['cryoplan_version']}"]
+    out = [
+        f"# Cryoplan budget: {p['title']}",
+        "",
+        f"Plan file: `{p['file']}`  ",
+        f"Printed {p['date']} by cryoplan {p['cryoplan_version']}",
+    ]
     for b in blocks:
         out.append("")
         if isinstance(b, Heading):

@@ -128,9 +128,14 @@ def wrap(text: str, width: float, size: float, bold: bool = False, mono: bool = 
             limit = width
         current = ""
         while text_width(word, size, bold, mono) > limit:
-            cut = len(word) - 1
-            while cut > 1 and text_width(word[:cut], size, bold, mono) > limit:
-                cut -= 1
+            lo, hi = 1, len(word) - 1  # the longest prefix that fits: a binary search
+            while lo < hi:
+                mid = (lo + hi + 1) // 2
+                if text_width(word[:mid], size, bold, mono) <= limit:
+                    lo = mid
+                else:
+                    hi = mid - 1
+            cut = lo
             lines.append(word[:cut])
             limit = width
             word = word[cut:]

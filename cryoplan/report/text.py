@@ -71,10 +71,12 @@ def ascii_chart(chart: Chart, width: int = 72, height: int = 14) -> list[str]:
     lo, hi = f"{x0:.4g}", f"{x1:.4g}"
     out.append(" " * (label_w + 2) + lo + " " * max(1, plot_w - len(lo) - len(hi)) + hi)
     out.append(" " * (label_w + 2) + f"x: {chart.x_label}; y: {chart.y_label}")
-    legend = "; ".join(f"{marks[k % len(marks)]} {name}" for k, (name, _, _) in
-                       enumerate(chart.series))
-    out += textwrap.wrap(legend, width, initial_indent=" " * (label_w + 2),
-                         subsequent_indent=" " * (label_w + 2))
+    legend = "; ".join(
+        f"{marks[k % len(marks)]} {name}" for k, (name, _, _) in enumerate(chart.series)
+    )
+    out += textwrap.wrap(
+        legend, width, initial_indent=" " * (label_w + 2), subsequent_indent=" " * (label_w + 2)
+    )
     return out
 
 
@@ -82,8 +84,11 @@ def render_blocks(blocks, width: int = 80) -> list[str]:
     out: list[str] = []
     for b in blocks:
         if isinstance(b, Heading):
-            out += ["", b.text.upper() if b.level == 1 else b.text,
-                    ("=" if b.level == 1 else "-") * min(width, len(b.text))]
+            out += [
+                "",
+                b.text.upper() if b.level == 1 else b.text,
+                ("=" if b.level == 1 else "-") * min(width, len(b.text)),
+            ]
         elif isinstance(b, Table):
             out.append("")
             out += _wrap_table(b, width)
@@ -94,8 +99,9 @@ def render_blocks(blocks, width: int = 80) -> list[str]:
             out.append("")
             for i, item in enumerate(b.items, start=1):
                 head = f"[{i}] " if b.numbered else "- "
-                out += textwrap.wrap(item, width, initial_indent=head,
-                                     subsequent_indent=" " * len(head))
+                out += textwrap.wrap(
+                    item, width, initial_indent=head, subsequent_indent=" " * len(head)
+                )
         elif isinstance(b, Chart):
             out.append("")
             out += ascii_chart(b, width=min(width, 78))

@@ -1,0 +1,327 @@
+"""Refrigeration of a plan: Carnot against real work, steady state, cooldown-time simulation.
+
+An evaluation hook (see :mod:`cryoplan.evaluation`): reads the plan's ``[cooler]``, writes
+``data["refrigeration"]`` and the summary's ``cooldown_time_h``. The physics is in
+:mod:`cryoplan.refrigeration`; the static loads come from :mod:`cryoplan.eval_loads`.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+from scipy.constants import Stefan_Boltzmann as _SIGMA  # noqa: E402
+
+from . import heatloads as hl
+from . import refrigeration as rf
+from .errors import InputError
+from .plan import Plan
+
+SOURCE = (
+    "Refrigerator efficiency trend against capacity: T. R. Strobridge, Cryogenic "
+    "refrigerators - an updated survey, NBS Technical Note 655 (1974) (trend line from "
+    "memory; guidance only)."
+)
+
+
+def _k_table(material_id: str, rrr, t_lo: float, t_hi: float):
+    """Running conductivity integral K(T) = int_{t_lo}^{T} k dT on a log grid, for np.interp."""
+    from .library import material
+
+    m = material(material_id)
+    grid = np.geomspace(t_lo, t_hi, 200)
+    values = np.asarray(
+        m.conductivity_integral(np.full_like(grid, t_lo), grid, rrr=rrr, extrapolate=True), float
+    )
+    return grid, values
+
+
+def _load_function(plan: Plan, names: list[str], t_lo: float, t_hi: float, steady_items):
+    """Static loads as a vectorised function of the stage-temperature vector (for the sim).
+
+    Radiation (bare and MLI), supports and wires follow the stage temperatures; leads,
+    necks and residual gas are held at their cold-state values (noted in the report).
+    """
+    from .library import material
+
+    index = {n: i for i, n in enumerate(names)}
+    terms = []
+    fixed = np.zeros(len(names))
+    held = []
+    for load in plan.loads:
+        v = load.values
+        i = index[load.stage]
+        j = index.get(v.get("from_stage")) if v.get("from_stage") else None
+        t_from = v.get("from")
+        if load.kind == "fixed":
+            fixed[i] += v["power"]
+        elif load.kind == "radiation":
+            if v["layers"]:
+
+                def term(T, i=i, j=j, t_from=t_from, v=v):
+                    tw = T[j] if j is not None else t_from
+                    tc = T[i]
+                    return i, np.where(
+                        tw > tc,
+                        hl.mli_load(
+                            v["area"],
+                            np.minimum(tc, tw),
+                            np.maximum(tw, tc + 1e-9),
+                            v["layers"],
+                            v["layer_density"] or 2000.0,
+                        ),
+                        0.0,
+                    )
+            else:
+                ec, ew = v["emissivity"]
+
+                def term(T, i=i, j=j, t_from=t_from, v=v, ec=ec, ew=ew):
+                    tw = T[j] if j is not None else t_from
+                    tc = T[i]
+                    sigma = _SIGMA
+                    denom = 1 / ec + v["area_ratio"] * (1 / ew - 1)
+                    return i, sigma * v["area"] * (tw**4 - tc**4) / denom
+
+            terms.append(term)
+        elif load.kind in ("support", "wire"):
+            grid, kint = _k_table(v["material"], v.get("rrr"), t_lo, t_hi)
+            if load.kind == "wire":
+                d = hl.awg_diameter(v["gauge"]) if "gauge" in v else v["diameter"]
+                area = math.pi / 4 * d * d
+            else:
+                area = v["area"]
+            chain = [j if j is not None else ("T", t_from)] + [index[s] for s in v["via"]] + [i]
+            seg = v["length"] / (len(chain) - 1)
+            g = v["count"] * area / seg
+
+            def term(T, chain=chain, grid=grid, kint=kint, g=g):
+                temps = [np.full_like(T[0], c[1]) if isinstance(c, tuple) else T[c] for c in chain]
+                flows = [
+                    g * (np.interp(a, grid, kint) - np.interp(b, grid, kint))
+                    for a, b in zip(temps, temps[1:])
+                ]
+                out = []
+                for k, node in enumerate(chain[1:]):
+                    arriving = flows[k] - (flows[k + 1] if k + 1 < len(flows) else 0.0)
+                    out.append((node, arriving))
+                return out
+
+            terms.append(term)
+        else:
+            power = sum(
+                it["power_W"]
+                for it in steady_items
+                if it["name"] == v.get("name") and it["stage"] == load.stage
+            )
+            fixed[i] += power
+            held.append(v.get("name", load.kind))
+    del material
+
+    def load_fn(T):
+        T = np.asarray(T, float)
+        out = np.zeros_like(T) + (fixed[:, None] if T.ndim == 2 else fixed)
+        for term in terms:
+            result = term(T)
+            if isinstance(result, tuple):
+                result = [result]
+            for node, power in result:
+                out[node] = out[node] + power
+        return out
+
+    return load_fn, held
+
+
+def analyse_cooler(plan: Plan, data: dict) -> None:
+    """Evaluation hook: refrigeration table, steady state and cooldown simulation."""
+    cooler = plan.cooler
+    if cooler is None:
+        return
+    from .eval_loads import stage_loads
+    from .library import material
+
+    names = [s.name for s in plan.stages]
+    targets = np.array([s.temperature for s in plan.stages])
+    temps = {s.name: s.temperature for s in plan.stages}
+    items, totals = stage_loads(plan, temps)
+    load_at_target = np.array([totals.get(n, 0.0) for n in names])
+    curves: list = [None] * len(names)
+    for cs in cooler.stages:
+        k = names.index(cs.stage)
+        try:
+            if cs.capacity is not None:
+                curves[k] = rf.CapacityCurve(cs.capacity, key=f"{cs.key}.capacity")
+            else:
+                raise InputError(
+                    "capacity maps are given per stage as [[K, W], ...] in this version",
+                    key=f"{cs.key}.map",
+                    expected="capacity = [[K, W], ...]",
+                    found="a map",
+                )
+        except InputError as exc:
+            exc.file, exc.line = plan.path, cs.line
+            raise
+    carnot_w_per_w = np.array([float(rf.carnot_specific_power(t, plan.ambient)) for t in targets])
+    carnot_w = carnot_w_per_w * load_at_target
+    capacity_at_target = np.array(
+        [float(c(t)) if c is not None else np.nan for c, t in zip(curves, targets)]
+    )
+    links = []
+    for link in cooler.links:
+        a, b = link["between"]
+        if "conductance" in link:
+            links.append(rf.Link(a, b, conductance=link["conductance"]))
+        else:
+            m = material(link["material"])
+            links.append(
+                rf.Link(
+                    a,
+                    b,
+                    conductivity_integral=lambda x, y, m=m: m.conductivity_integral(
+                        x, y, extrapolate=True
+                    ),
+                    area=link["area"] * link["count"],
+                    length=link["length"],
+                )
+            )
+    t_lo = max(0.25 * float(targets.min()), 0.5)
+    t_hi = max(plan.cooldown.start, plan.ambient) * 1.01
+    load_fn, held = _load_function(plan, names, t_lo, t_hi, items)
+
+    def capacity_fn(T):
+        T = np.asarray(T, float)
+        out = np.zeros_like(T)
+        for k, c in enumerate(curves):
+            if c is not None:
+                out[k] = c(T[k])
+        return out
+
+    stages_out = []
+    steady = None
+    notes = []
+    try:
+        steady = rf.steady_state(
+            capacity_fn, load_fn, links, targets=targets, ambient=plan.ambient, names=names
+        )
+    except InputError as exc:
+        exc.file = plan.path
+        exc.key = exc.key or "cooler"
+        exc.line = exc.line or (cooler.stages[0].line if cooler.stages else None)
+        raise
+    for k, name in enumerate(names):
+        cooled = curves[k] is not None
+        flag = ""
+        if cooled and load_at_target[k] > capacity_at_target[k]:
+            flag = (
+                f"load exceeds capacity at {targets[k]:g} K by "
+                f"{load_at_target[k] - capacity_at_target[k]:.3g} W"
+            )
+        stages_out.append(
+            {
+                "stage": name,
+                "temperature_K": float(targets[k]),
+                "load_W": float(load_at_target[k]),
+                "capacity_W": None if not cooled else float(capacity_at_target[k]),
+                "carnot_W_per_W": float(carnot_w_per_w[k]),
+                "carnot_W": float(carnot_w[k]),
+                "steady_K": float(steady.temperatures[k]) if steady is not None else None,
+                "flag": flag or ("" if cooled else "not on the cooler"),
+            }
+        )
+    carnot_total = float(carnot_w.sum())
+    result = {
+        "stages": stages_out,
+        "carnot_total_W": carnot_total,
+        "input_power_W": cooler.input_power,
+        "percent_of_carnot": None,
+        "notes": notes,
+    }
+    cold = [k for k, c in enumerate(curves) if c is not None]
+    if cold:
+        coldest = min(cold, key=lambda k: targets[k])
+        cap = capacity_at_target[coldest]
+        if cap > 0:
+            # the trend is stated for refrigeration capacity at the cold end
+            result["survey_percent"] = float(rf.survey_percent_carnot(max(cap, 0.1)))
+            result["survey_source"] = "Strobridge 1974, trend from memory"
+    if cooler.input_power:
+        # the cooler's own rating: its capacity at the targets against its input
+        lifted = float(
+            np.nansum(
+                np.where(np.isnan(capacity_at_target), 0, capacity_at_target * carnot_w_per_w)
+            )
+        )
+        result["percent_of_carnot"] = 100 * lifted / cooler.input_power
+        result["rated_carnot_W"] = lifted
+    elif cooler.percent_carnot:
+        result["real_input_W"] = carnot_total / (cooler.percent_carnot / 100)
+        result["percent_of_carnot"] = cooler.percent_carnot
+    if cold and not plan.cooldown.steps:
+        from .library import material as mat
+
+        def heat_capacity_of(stage):
+            parts = [(mat(p.material), p.mass) for p in stage.parts]
+            return (
+                (
+                    lambda T, parts=parts: sum(
+                        m.specific_heat(T, extrapolate=True) * w for m, w in parts
+                    )
+                ),
+                (
+                    lambda T, parts=parts: sum(
+                        m.enthalpy(T, extrapolate=True) * w for m, w in parts
+                    )
+                ),
+                (lambda T, parts=parts: sum(m.entropy(T, extrapolate=True) * w for m, w in parts)),
+            )
+
+        cstages = []
+        for s in plan.stages:
+            c, h, e = heat_capacity_of(s)
+            start = (
+                max((p.start if p.start is not None else plan.cooldown.start) for p in s.parts)
+                if s.parts
+                else plan.cooldown.start
+            )
+            cstages.append(
+                rf.CooldownStage(s.name, c, start, s.temperature, enthalpy=h, entropy=e)
+            )
+        sim = rf.simulate_cooldown(
+            cstages,
+            curves,
+            load_fn,
+            links,
+            input_power=cooler.input_power,
+            ambient=plan.ambient,
+            t_max=cooler.max_time,
+        )
+        times = np.linspace(0.0, float(sim.t[-1]), 80)
+        temps_curve = sim.temperatures_at(times)
+        result["cooldown"] = {
+            "time_to_target_s": {
+                n: (None if t is None else float(t)) for n, t in zip(names, sim.time_to_target)
+            },
+            "cooldown_time_s": None if sim.cooldown_time is None else float(sim.cooldown_time),
+            "not_reached": list(sim.not_reached),
+            "electrical_kWh": None
+            if sim.electrical_energy is None
+            else sim.electrical_energy / 3.6e6,
+            "minimum_work_kWh": None
+            if sim.minimum_work is None
+            else float(np.sum(sim.minimum_work)) / 3.6e6,
+            "closure": float(sim.closure_error),
+        }
+        result["curve"] = {
+            "time_h": (times / 3600).tolist(),
+            "stages": {n: temps_curve[k].tolist() for k, n in enumerate(names)},
+        }
+        if sim.cooldown_time is not None:
+            data["summary"]["cooldown_time_h"] = float(sim.cooldown_time) / 3600
+        if sim.not_reached:
+            notes.append(
+                "Not at target when the simulation stopped ("
+                f"{cooler.max_time / 86400:g} days): " + ", ".join(sim.not_reached)
+            )
+        if held:
+            notes.append("Held at their cold values during the cooldown: " + ", ".join(held))
+    data["refrigeration"] = result
+    data.setdefault("sources", []).append(SOURCE)
