@@ -1106,7 +1106,7 @@ class _VaporLead:
             (0.0, 1e30),
             [self.Tl, 0.0],
             method="DOP853",
-            rtol=1e-9,
+            rtol=1e-8,
             atol=[1e-9 * self.Th, 1e-14],
             events=[hot, peak, cap],
             dense_output=True,
@@ -1167,7 +1167,7 @@ class _VaporLead:
             (eta_p, 1e30),
             [T_p, R_p],
             method="DOP853",
-            rtol=1e-9,
+            rtol=1e-8,
             atol=[1e-9 * self.Th, 1e-14],
             events=[back],
             first_step=1e-6 * eta_p,
@@ -1712,8 +1712,13 @@ def boiloff_rate(heat_load, latent_heat, liquid_density) -> float | np.ndarray:
     -----
     The latent heat alone: the vapour leaves at the bath temperature, and the vapour that
     fills the space left by the liquid is neglected (a few per cent for helium at 1 atm,
-    where the vapour is about 1/7.5 as dense as the liquid). Common practice: 1 W boils about
+    where the vapour is about 1/7.4 as dense as the liquid). Common practice: 1 W boils about
     1.4 L/h of liquid helium and about 0.022 L/h of liquid nitrogen.
+
+    Caution: the boil-off must vent freely. A closed or blocked vessel builds up pressure, and
+    the vented gas displaces the room's oxygen (each litre of liquid helium makes some 750
+    litres of gas at room temperature). Relief devices, venting and room ventilation follow
+    local codes, the site's safety office and licensed practice.
 
     References
     ----------
