@@ -1240,7 +1240,7 @@ def vapor_cooled_lead_optimum(
     -----
     Steady state, one dimension, perfect heat exchange, all of the lead's own boil-off and
     no more passing along it. About 1.04 mW/A for helium from 4.2 K to room temperature,
-    some 45 times less than without the gas. If the gas flow stops (a closed valve, a blocked
+    some 40-45 times less than without the gas (47 W/kA). If the gas flow stops (a closed valve, a blocked
     passage) the lead overheats within seconds to minutes and can burn out; a closed
     cryostat also builds up pressure. Protection and relief follow local codes, the site's
     safety office and licensed practice.
