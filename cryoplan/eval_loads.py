@@ -28,6 +28,31 @@ SOURCES = [
 ]
 
 
+_VAPOR_LEAD_CACHE: dict = {}
+
+
+def _vapor_lead_per_ampere(cryogen_name: str, t_bath: float, t_warm: float) -> float:
+    """Optimum heat per ampere of a vapour-cooled lead [W/A].
+
+    For a helium bath near 4.2 K with the warm end near room temperature this is the
+    published figure (:data:`cryoplan.heatloads.VAPOR_COOLED_LEAD_HEAT_PER_AMPERE`,
+    1.04 mW/A); elsewhere Lock's counterflow model is solved once per temperatures.
+    """
+    if cryogen_name == "helium" and abs(t_bath - 4.22) < 0.3 and 270.0 <= t_warm <= 310.0:
+        return hl.VAPOR_COOLED_LEAD_HEAT_PER_AMPERE
+    key = (cryogen_name, round(t_bath, 3), round(t_warm, 3))
+    if key not in _VAPOR_LEAD_CACHE:
+        from .fluids import cryogen
+
+        fluid = cryogen(cryogen_name)
+        tb = fluid.boiling_point
+        q, _ = hl.vapor_cooled_lead_optimum(
+            1000.0, t_bath, t_warm, fluid.latent_heat,
+            lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)))
+        _VAPOR_LEAD_CACHE[key] = float(q) / 1000.0
+    return _VAPOR_LEAD_CACHE[key]
+
+
 def _stage_temps(plan: Plan) -> dict[str, float]:
     return {s.name: s.temperature for s in plan.stages}
 
@@ -109,16 +134,8 @@ def load_contributions(
                 )
             fluid = cryogen(bath.cryogen, pressure=bath.pressure)
             tb = fluid.boiling_point
-            q, _ = hl.vapor_cooled_lead_optimum(
-                current,
-                tb,
-                t_warm,
-                fluid.latent_heat,
-                lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)),
-            )
-            return {
-                load.stage: float(q) * count
-            }, f"{count} x {current:g} A, vapour-cooled optimum"
+            q = _vapor_lead_per_ampere(bath.cryogen, tb, t_warm) * current
+            return {load.stage: q * count}, f"{count} x {current:g} A, vapour-cooled optimum"
         m = material(v["material"] or "copper")
         if v.get("length") and v.get("area"):
             q = hl.conduction_cooled_lead_load(

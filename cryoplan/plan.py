@@ -24,6 +24,9 @@ except ModuleNotFoundError:  # pragma: no cover - Python 3.10
     import tomli as _toml
 
 
+#: Real multilayer insulation against the calorimeter correlation (common practice: about 2).
+MLI_DEGRADATION = 2.0
+
 #: Half a kelvin below a boiling point still means the boiling point ("77 K" for nitrogen).
 BOILING_POINT_SNAP_K = 0.5
 
@@ -230,7 +233,8 @@ MARGIN_KEYS = {"mass"}
 OPERATION_KEYS = {"start_date", "days"}
 LOAD_KEYS = {
     "fixed": {"power"},
-    "radiation": {"area", "from", "emissivity", "layers", "area_ratio", "layer_density"},
+    "radiation": {"area", "from", "emissivity", "layers", "area_ratio", "layer_density",
+                  "degradation"},
     "support": {"material", "area", "length", "count", "from", "via", "rrr", "diameter"},
     "wire": {"material", "diameter", "gauge", "length", "count", "from", "via", "rrr"},
     "lead": {"current", "from", "cooling", "count", "material", "length", "area"},
@@ -951,6 +955,9 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
             else:
                 v["layers"] = layers
         v["area_ratio"] = reader.fraction(raw, "area_ratio", key, 0.0)
+        # real blankets, with seams and penetrations, leak about twice the calorimeter
+        # figure of the correlation (common practice)
+        v["degradation"] = reader.fraction(raw, "degradation", key, MLI_DEGRADATION, 1.0, 10.0)
         v["layer_density"] = reader.quantity(
             raw, "layer_density", key, "per length", positive=True
         )
