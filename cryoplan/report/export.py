@@ -76,9 +76,12 @@ def curve_csv(data: dict) -> str:
     """
     curve = (data.get("refrigeration") or {}).get("curve")
     if not curve or not curve.get("time_h"):
-        raise InputError("this plan has no cooldown curve to write", key="--curve",
-                         expected="a plan with a [cooler] that does the cooldown",
-                         found="no cooler curve")
+        raise InputError(
+            "this plan has no cooldown curve to write",
+            key="--curve",
+            expected="a plan with a [cooler] that does the cooldown",
+            found="no cooler curve",
+        )
     times = list(curve["time_h"])
     stages = curve.get("stages") or {}
     rows = [["time [h]"] + [f"{name} [K]" for name in stages]]
@@ -97,8 +100,10 @@ def table_csv(table: Table) -> str:
     """
     n = len(table.headers)
     rows = [list(table.headers)]
-    rows += [[("" if c is None else str(c)) for c in list(r)[:n]] + [""] * (n - len(r))
-             for r in table.rows]
+    rows += [
+        [("" if c is None else str(c)) for c in list(r)[:n]] + [""] * (n - len(r))
+        for r in table.rows
+    ]
     return _csv_text(rows)
 
 
@@ -121,8 +126,9 @@ def chart_csv(chart: Chart) -> str:
     if series and all(xs == series[0][1] for _, xs, _ in series):
         rows = [[chart.x_label] + [f"{label}: {chart.y_label}" for label, _, _ in series]]
         for k, x in enumerate(series[0][1]):
-            rows.append([_number(x)] + [_number(ys[k]) if k < len(ys) else ""
-                                        for _, _, ys in series])
+            rows.append(
+                [_number(x)] + [_number(ys[k]) if k < len(ys) else "" for _, _, ys in series]
+            )
         return _csv_text(rows)
     rows = [["series", chart.x_label, chart.y_label]]
     for label, xs, ys in series:
@@ -130,22 +136,24 @@ def chart_csv(chart: Chart) -> str:
     return _csv_text(rows)
 
 
-def _slug(text: str) -> str:
-    """A file-friendly name.
+def _slug(text: str, lower: bool = True) -> str:
+    """A file-friendly name: letters, digits, ``-`` and ``_``.
 
-    >>> _slug("Dewars and range"), _slug("  "), _slug("T(t) / 4K")
-    ('dewars_and_range', '', 't_t_4k')
+    >>> _slug("Dewars and range"), _slug("  "), _slug("T(t) / 4K"), _slug("heat_J", False)
+    ('dewars_and_range', '', 't_t_4k', 'heat_J')
     """
-    return re.sub(r"[^a-z0-9]+", "_", text.lower()).strip("_")[:60]
+    text = text.lower() if lower else text
+    return re.sub(r"[^A-Za-z0-9_-]+", "_", text).strip("_-")[:60]
 
 
 def csv_files(blocks) -> dict[str, str]:
     """File name -> CSV text for every table and chart block, in reading order.
 
     A block's ``name`` names its file; a block without one takes its title or the heading
-    above it. Names are made unique with a number.
+    above it. Names are made unique with a number, ignoring case (as some file systems do).
     """
     files: dict[str, str] = {}
+    taken: set[str] = set()
     heading = "table"
     for b in blocks:
         if isinstance(b, Heading):
@@ -153,10 +161,11 @@ def csv_files(blocks) -> dict[str, str]:
             continue
         if not isinstance(b, (Table, Chart)):
             continue
-        base = _slug(b.name) or _slug(b.title) or _slug(heading) or "table"
+        base = _slug(b.name, lower=False) or _slug(b.title) or _slug(heading) or "table"
         name, k = base, 2
-        while f"{name}.csv" in files:
+        while name.lower() in taken:
             name, k = f"{base}_{k}", k + 1
+        taken.add(name.lower())
         files[f"{name}.csv"] = table_csv(b) if isinstance(b, Table) else chart_csv(b)
     return files
 
@@ -192,12 +201,19 @@ def write_csv_folder(data: dict, folder: str) -> list[str]:
     folder = os.path.abspath(folder)
     parent = os.path.dirname(folder)
     if os.path.exists(folder) and not os.path.isdir(folder):
-        raise InputError("cannot write the CSV files", file=folder,
-                         expected="a folder", found="a file of that name")
+        raise InputError(
+            "cannot write the CSV files",
+            file=folder,
+            expected="a folder",
+            found="a file of that name",
+        )
     if not os.path.isdir(parent):
-        raise InputError("cannot write the CSV files", file=folder,
-                         expected="a folder whose parent folder exists",
-                         found="no such parent folder")
+        raise InputError(
+            "cannot write the CSV files",
+            file=folder,
+            expected="a folder whose parent folder exists",
+            found="no such parent folder",
+        )
     existed = os.path.isdir(folder)
     try:
         staging = tempfile.mkdtemp(prefix=".cryoplan-csv-", dir=folder if existed else parent)

@@ -62,11 +62,14 @@ def paper_size(paper: str) -> tuple[float, float]:
     >>> [round(v, 1) for v in paper_size("A4")], paper_size("letter")
     ([595.3, 841.9], (612.0, 792.0))
     """
-    key = str(paper).strip().lower().replace("us-letter", "letter").replace("us letter",
-                                                                            "letter")
+    key = str(paper).strip().lower().replace("us-letter", "letter").replace("us letter", "letter")
     if key not in PAPER_SIZES:
-        raise InputError(f"unknown paper size {paper!r}", key="--paper",
-                         expected="one of " + ", ".join(PAPER_SIZES), found=str(paper))
+        raise InputError(
+            f"unknown paper size {paper!r}",
+            key="--paper",
+            expected="one of " + ", ".join(PAPER_SIZES),
+            found=str(paper),
+        )
     return PAPER_SIZES[key]
 
 
@@ -78,11 +81,13 @@ def _matplotlib():
     except ImportError:
         raise CryoplanError(
             "PDF output needs matplotlib, which is not installed: install the pdf extra, "
-            "for example  pip install 'cryoplan[pdf]'") from None
+            "for example  pip install 'cryoplan[pdf]'"
+        ) from None
     return matplotlib, Figure, PdfPages
 
 
 # --- measuring and wrapping text ------------------------------------------------------------
+
 
 @lru_cache(maxsize=1)
 def _renderer():
@@ -95,8 +100,9 @@ def _renderer():
 def _props(size: float, bold: bool, mono: bool):
     from matplotlib.font_manager import FontProperties
 
-    return FontProperties(family=MONO if mono else SANS, weight="bold" if bold else "normal",
-                          size=size)
+    return FontProperties(
+        family=MONO if mono else SANS, weight="bold" if bold else "normal", size=size
+    )
 
 
 @lru_cache(maxsize=20000)
@@ -104,13 +110,20 @@ def text_width(text: str, size: float, bold: bool = False, mono: bool = False) -
     """Width [pt] of one line of text in the report's font."""
     if not text:
         return 0.0
-    w, _, _ = _renderer().get_text_width_height_descent(text, _props(size, bold, mono),
-                                                         ismath=False)
+    w, _, _ = _renderer().get_text_width_height_descent(
+        text, _props(size, bold, mono), ismath=False
+    )
     return float(w)
 
 
-def wrap(text: str, width: float, size: float, bold: bool = False, mono: bool = False,
-         first_width: float | None = None) -> list[str]:
+def wrap(
+    text: str,
+    width: float,
+    size: float,
+    bold: bool = False,
+    mono: bool = False,
+    first_width: float | None = None,
+) -> list[str]:
     """Lines of ``text`` no wider than ``width`` [pt] (``first_width`` for the first line).
 
     Words break at spaces; a word longer than a line (a long path) breaks between characters.
@@ -146,6 +159,7 @@ def wrap(text: str, width: float, size: float, bold: bool = False, mono: bool = 
 
 
 # --- page layout: a list of drawing operations per page ---------------------------------------
+
 
 @dataclass
 class _Page:
@@ -199,8 +213,16 @@ class _Layout:
         self.pages[-1].ops.append(("chart", x, y, w, h, chart))
 
 
-def _lines(layout: _Layout, lines: list[str], x: float, size: float, leading: float,
-           bold=False, mono=False, indent_first: tuple[str, float] | None = None) -> None:
+def _lines(
+    layout: _Layout,
+    lines: list[str],
+    x: float,
+    size: float,
+    leading: float,
+    bold=False,
+    mono=False,
+    indent_first: tuple[str, float] | None = None,
+) -> None:
     """Draw wrapped lines, breaking pages between lines; ``indent_first`` = (label, width)."""
     for i, line in enumerate(lines):
         layout.need(leading)
@@ -214,8 +236,9 @@ def _title_block(layout: _Layout, title: str, details: list[str]) -> None:
     layout.y += 16
     layout.text(layout.left, layout.y, "Cryoplan budget", 17, bold=True)
     layout.y += 4
-    _lines(layout, wrap(title, layout.text_width, 12.5, bold=True), layout.left, 12.5, 16,
-           bold=True)
+    _lines(
+        layout, wrap(title, layout.text_width, 12.5, bold=True), layout.left, 12.5, 16, bold=True
+    )
     layout.y += 3
     for d in details:
         _lines(layout, wrap(d, layout.text_width, 9), layout.left, 9, 12)
@@ -240,8 +263,13 @@ def _heading(layout: _Layout, block: Heading, keep: float) -> None:
 
 def _paragraph(layout: _Layout, block: Paragraph) -> None:
     layout.space(5)
-    _lines(layout, wrap(block.text, layout.text_width, BODY_SIZE), layout.left, BODY_SIZE,
-           BODY_LEADING)
+    _lines(
+        layout,
+        wrap(block.text, layout.text_width, BODY_SIZE),
+        layout.left,
+        BODY_SIZE,
+        BODY_LEADING,
+    )
 
 
 def _bullet_label(block: Bullets, i: int) -> str:
@@ -261,18 +289,19 @@ def _bullets(layout: _Layout, block: Bullets) -> None:
 
 # --- tables -----------------------------------------------------------------------------------
 
+
 def _column_widths(headers, rows, size, available) -> tuple[list[float], bool]:
     """Column widths [pt] (padding included) and whether they fit without wrapping."""
     n = len(headers)
     natural = [text_width(str(h), size, bold=True) for h in headers]
-    longest_word = [max((text_width(w, size, bold=True) for w in str(h).split()), default=0)
-                    for h in headers]
+    longest_word = [
+        max((text_width(w, size, bold=True) for w in str(h).split()), default=0) for h in headers
+    ]
     for row in rows:
         for i in range(n):
             cell = str(row[i])
             natural[i] = max(natural[i], text_width(cell, size))
-            longest_word[i] = max([longest_word[i]] + [text_width(w, size) for w in
-                                                       cell.split()])
+            longest_word[i] = max([longest_word[i]] + [text_width(w, size) for w in cell.split()])
     natural = [w + 2 * CELL_PAD for w in natural]
     if sum(natural) <= available:
         return natural, True
@@ -300,8 +329,10 @@ def _table(layout: _Layout, block: Table) -> None:
     n = len(block.headers)
     if n == 0:
         return
-    rows = [[("" if c is None else str(c)) for c in list(r)[:n]] + [""] * (n - len(r))
-            for r in block.rows]
+    rows = [
+        [("" if c is None else str(c)) for c in list(r)[:n]] + [""] * (n - len(r))
+        for r in block.rows
+    ]
     align = (block.align or ("l" + "r" * (n - 1))).ljust(n, "r")
     for size in TABLE_SIZES:
         widths, fits = _column_widths(block.headers, rows, size, layout.text_width)
@@ -364,6 +395,7 @@ def _table(layout: _Layout, block: Table) -> None:
 
 # --- charts -----------------------------------------------------------------------------------
 
+
 def _chart_block(layout: _Layout, block: Chart) -> None:
     title_lines = wrap(block.title, layout.text_width, 10, bold=True) if block.title else []
     height = len(title_lines) * 13 + 4 + CHART_HEIGHT
@@ -394,19 +426,32 @@ def _finite_series(block: Chart):
 
 def _draw_chart(fig, page_w, page_h, x, y, w, h, block: Chart) -> None:
     left, bottom, right, top = 50.0, 30.0, 8.0, 4.0  # room for ticks and axis labels [pt]
-    ax = fig.add_axes([(x + left) / page_w, (page_h - y - h + bottom) / page_h,
-                       (w - left - right) / page_w, (h - bottom - top) / page_h])
+    ax = fig.add_axes(
+        [
+            (x + left) / page_w,
+            (page_h - y - h + bottom) / page_h,
+            (w - left - right) / page_w,
+            (h - bottom - top) / page_h,
+        ]
+    )
     series = _finite_series(block)
     drawn = 0
     for k, (label, xs, ys) in enumerate(series):
         if not xs:
             continue
         step = max(1, len(xs) // 8)
-        ax.plot(xs, ys, color="black", linewidth=1.1,
-                linestyle=LINE_STYLES[k % len(LINE_STYLES)],
-                marker=MARKERS[k % len(MARKERS)], markersize=4.5, fillstyle="none",
-                markevery=(min(k * max(1, step // 3), len(xs) - 1), step),
-                label=label.replace("$", r"\$"))
+        ax.plot(
+            xs,
+            ys,
+            color="black",
+            linewidth=1.1,
+            linestyle=LINE_STYLES[k % len(LINE_STYLES)],
+            marker=MARKERS[k % len(MARKERS)],
+            markersize=4.5,
+            fillstyle="none",
+            markevery=(min(k * max(1, step // 3), len(xs) - 1), step),
+            label=label.replace("$", r"\$"),
+        )
         drawn += 1
     if block.log_x and drawn:
         ax.set_xscale("log")
@@ -415,14 +460,29 @@ def _draw_chart(fig, page_w, page_h, x, y, w, h, block: Chart) -> None:
     ax.tick_params(labelsize=8, direction="in", top=True, right=True)
     ax.grid(True, color="0.75", linewidth=0.4, linestyle=":")
     if not drawn:
-        ax.text(0.5, 0.5, "(no data)", transform=ax.transAxes, ha="center", va="center",
-                fontsize=9, parse_math=False)
+        ax.text(
+            0.5,
+            0.5,
+            "(no data)",
+            transform=ax.transAxes,
+            ha="center",
+            va="center",
+            fontsize=9,
+            parse_math=False,
+        )
     elif drawn > 1 or series[0][0]:
-        ax.legend(fontsize=7.5, frameon=True, framealpha=1.0, edgecolor="0.3",
-                  ncol=2 if drawn > 4 else 1, loc="best")
+        ax.legend(
+            fontsize=7.5,
+            frameon=True,
+            framealpha=1.0,
+            edgecolor="0.3",
+            ncol=2 if drawn > 4 else 1,
+            loc="best",
+        )
 
 
 # --- drawing the pages ------------------------------------------------------------------------
+
 
 def _draw_page(Figure, page: _Page, w: float, h: float, footer_left: str, footer_right: str):
     fig = Figure(figsize=(w / 72, h / 72), dpi=72)
@@ -430,9 +490,18 @@ def _draw_page(Figure, page: _Page, w: float, h: float, footer_left: str, footer
         kind = op[0]
         if kind == "text":
             _, x, y, s, size, bold, mono, ha, gray = op
-            fig.text(x / w, 1 - y / h, s, fontsize=size, fontweight="bold" if bold else "normal",
-                     family=MONO if mono else SANS, ha=ha, va="baseline", color=str(gray),
-                     parse_math=False)
+            fig.text(
+                x / w,
+                1 - y / h,
+                s,
+                fontsize=size,
+                fontweight="bold" if bold else "normal",
+                family=MONO if mono else SANS,
+                ha=ha,
+                va="baseline",
+                color=str(gray),
+                parse_math=False,
+            )
         elif kind == "rule":
             _, x0, x1, y, lw, gray = op
             fig.add_artist(_line(x0 / w, x1 / w, 1 - y / h, lw, gray))
@@ -443,10 +512,26 @@ def _draw_page(Figure, page: _Page, w: float, h: float, footer_left: str, footer
             _, x, y, cw, ch, block = op
             _draw_chart(fig, w, h, x, y, cw, ch, block)
     fy = 1 - (h - FOOTER_Y) / h
-    fig.text(MARGIN_X / w, fy, footer_left, fontsize=7.5, color="0.3", ha="left",
-             va="baseline", parse_math=False)
-    fig.text(1 - MARGIN_X / w, fy, footer_right, fontsize=7.5, color="0.3", ha="right",
-             va="baseline", parse_math=False)
+    fig.text(
+        MARGIN_X / w,
+        fy,
+        footer_left,
+        fontsize=7.5,
+        color="0.3",
+        ha="left",
+        va="baseline",
+        parse_math=False,
+    )
+    fig.text(
+        1 - MARGIN_X / w,
+        fy,
+        footer_right,
+        fontsize=7.5,
+        color="0.3",
+        ha="right",
+        va="baseline",
+        parse_math=False,
+    )
     return fig
 
 
@@ -496,9 +581,15 @@ def layout_blocks(blocks, paper: str = "a4", title: str = "", details: list[str]
     return layout
 
 
-def render_blocks_pdf(blocks, *, paper: str = "a4", title: str = "",
-                      details: list[str] | None = None, footer: str = "",
-                      metadata: dict | None = None) -> bytes:
+def render_blocks_pdf(
+    blocks,
+    *,
+    paper: str = "a4",
+    title: str = "",
+    details: list[str] | None = None,
+    footer: str = "",
+    metadata: dict | None = None,
+) -> bytes:
     """A PDF (bytes) of document blocks under a title block.
 
     Parameters
@@ -552,11 +643,20 @@ def render_pdf(data: dict, paper: str = "a4") -> bytes:
     p = data.get("plan", {})
     title = str(p.get("title") or "(untitled plan)")
     version = p.get("cryoplan_version", __version__)
-    details = [f"Plan file: {p.get('file', '-')}",
-               f"Printed {p.get('date', '-')} by cryoplan {version}"]
+    details = [
+        f"Plan file: {p.get('file', '-')}",
+        f"Printed {p.get('date', '-')} by cryoplan {version}",
+    ]
     footer = textwrap.shorten(f"cryoplan budget: {title}", 90, placeholder=" ...")
-    return render_blocks_pdf(build_document(data), paper=paper, title=title, details=details,
-                             footer=footer,
-                             metadata={"Title": f"Cryoplan budget: {title}",
-                                       "Subject": "Cryogenic cooldown budget",
-                                       "Creator": f"cryoplan {version}"})
+    return render_blocks_pdf(
+        build_document(data),
+        paper=paper,
+        title=title,
+        details=details,
+        footer=footer,
+        metadata={
+            "Title": f"Cryoplan budget: {title}",
+            "Subject": "Cryogenic cooldown budget",
+            "Creator": f"cryoplan {version}",
+        },
+    )
