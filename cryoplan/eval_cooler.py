@@ -10,12 +10,13 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from scipy.constants import Stefan_Boltzmann as _SIGMA  # noqa: E402
 
 from . import heatloads as hl
-from . import refrigeration as rf
 from .errors import InputError
 from .plan import Plan
+
+#: Stefan-Boltzmann constant, CODATA 2018 (exact in the SI since 2019), [W/(m^2 K^4)].
+_SIGMA = 5.670374419e-8
 
 SOURCE = (
     "Refrigerator efficiency trend against capacity: T. R. Strobridge, Cryogenic "
@@ -136,6 +137,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
     cooler = plan.cooler
     if cooler is None:
         return
+    from . import refrigeration as rf
     from .eval_loads import stage_loads
     from .library import material
 

@@ -47,8 +47,12 @@ def _vapor_lead_per_ampere(cryogen_name: str, t_bath: float, t_warm: float) -> f
         fluid = cryogen(cryogen_name)
         tb = fluid.boiling_point
         q, _ = hl.vapor_cooled_lead_optimum(
-            1000.0, t_bath, t_warm, fluid.latent_heat,
-            lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)))
+            1000.0,
+            t_bath,
+            t_warm,
+            fluid.latent_heat,
+            lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)),
+        )
         _VAPOR_LEAD_CACHE[key] = float(q) / 1000.0
     return _VAPOR_LEAD_CACHE[key]
 

@@ -21,10 +21,23 @@ from typing import NamedTuple
 
 import numpy as np
 from scipy import constants as _const
-from scipy.integrate import solve_ivp
-from scipy.optimize import brentq
 
 from .errors import InputError, TemperatureError, UnknownNameError
+
+
+def solve_ivp(*args, **kwargs):
+    """scipy.integrate.solve_ivp, imported on first use (keeps ``cryoplan print`` fast)."""
+    from scipy.integrate import solve_ivp as _solve_ivp
+
+    return _solve_ivp(*args, **kwargs)
+
+
+def brentq(*args, **kwargs):
+    """scipy.optimize.brentq, imported on first use."""
+    from scipy.optimize import brentq as _brentq
+
+    return _brentq(*args, **kwargs)
+
 
 __all__ = [
     "stefan_boltzmann",

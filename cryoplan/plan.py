@@ -233,8 +233,15 @@ MARGIN_KEYS = {"mass"}
 OPERATION_KEYS = {"start_date", "days"}
 LOAD_KEYS = {
     "fixed": {"power"},
-    "radiation": {"area", "from", "emissivity", "layers", "area_ratio", "layer_density",
-                  "degradation"},
+    "radiation": {
+        "area",
+        "from",
+        "emissivity",
+        "layers",
+        "area_ratio",
+        "layer_density",
+        "degradation",
+    },
     "support": {"material", "area", "length", "count", "from", "via", "rrr", "diameter"},
     "wire": {"material", "diameter", "gauge", "length", "count", "from", "via", "rrr"},
     "lead": {"current", "from", "cooling", "count", "material", "length", "area"},
