@@ -52,7 +52,7 @@ def sig(value, digits: int = 3) -> str:
     """A number to ``digits`` significant figures, no exponent for ordinary sizes.
 
     >>> sig(1234.5), sig(0.012345), sig(0.0), sig(None)
-    ('1230', '0.0123', '0', '-')
+    ('1234', '0.0123', '0', '-')
     """
     if value is None:
         return "-"
