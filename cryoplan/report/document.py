@@ -70,7 +70,9 @@ def sig(value, digits: int = 3) -> str:
 
 
 def energy(joules) -> str:
-    """>>> energy(1.5e6), energy(2300.0), energy(12.0), energy(210e3)
+    """Formatting for the budget.
+
+    >>> energy(1.5e6), energy(2300.0), energy(12.0), energy(210e3)
     ('1.50 MJ', '2.30 kJ', '12.0 J', '210 kJ')
     """
     if joules is None:
@@ -91,7 +93,9 @@ def _three(x: float) -> str:
 
 
 def litres(value) -> str:
-    """>>> litres(12.345), litres(0.0123)
+    """Formatting for the budget.
+
+    >>> litres(12.345), litres(0.0123)
     ('12.3', '0.0123')
     """
     return sig(value, 3)
@@ -104,7 +108,9 @@ def money(value, currency: str) -> str:
 
 
 def duration_h(hours) -> str:
-    """>>> duration_h(30.5), duration_h(400.0)
+    """Formatting for the budget.
+
+    >>> duration_h(30.5), duration_h(400.0)
     ('30.5 h', '400 h (16.7 d)')
     """
     if hours is None:
