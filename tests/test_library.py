@@ -500,3 +500,48 @@ def test_installed_package_finds_every_material(tmp_path):
     ids, folder = json.loads(out)
     assert ids == sorted(p.stem for p in BUNDLED.glob("*.toml"))
     assert str(REPO) not in folder  # found inside the installed package
+
+
+def test_extra_terms_and_tabulated_model_from_files(tmp_path, monkeypatch):
+    # an Einstein term adds atoms x 3R x^2 e^x/(e^x-1)^2 / M (Einstein 1907), a Schottky
+    # term centres x its two-level curve / M: exact arithmetic against solids
+    from cryoplan import solids
+
+    base = write(tmp_path, "plain")
+    extra = base.read_text().replace(
+        'debye_temperature = "343 K"',
+        'debye_temperature = "343 K"\n'
+        'einstein = [{ temperature = "120 K", atoms = 0.5, source = "test" }]\n'
+        'schottky = [{ gap = "2 K", centres = 0.01, source = "test" }]',
+    )
+    (tmp_path / "extra.toml").write_text(extra.replace('id = "plain"', 'id = "extra"'))
+    # a tabulated model whose table is its reference points
+    table = base.read_text().replace('model = "debye"', 'model = "tabulated"')
+    (tmp_path / "table.toml").write_text(table.replace('id = "plain"', 'id = "table"'))
+    use_folder(monkeypatch, tmp_path)
+    t = np.array([0.8, 5.0, 60.0])
+    diff = library.material("extra").specific_heat(t) - library.material("plain").specific_heat(t)
+    expected = (
+        0.5 * solids.einstein_heat_capacity(t, 120.0)
+        + 0.01 * solids.schottky_heat_capacity(t, 2.0)
+    ) / 0.0635
+    np.testing.assert_allclose(diff, expected, rtol=1e-9)
+    tab = library.material("table")
+    assert tab.specific_heat(300.0) == pytest.approx(385.0, rel=1e-12)
+    assert tab.specific_heat(2.0) == pytest.approx(0.1 / 8, rel=1e-12)  # beta T^3 below 4 K
+    assert library.library_problems() == []
+
+
+def test_mixture_with_unknown_component_is_reported(tmp_path, monkeypatch):
+    (tmp_path / "blend.toml").write_text(
+        'id = "blend"\nname = "Blend"\nclass = "composite"\n'
+        'density = { value = "5000 kg/m^3", source = "test" }\n'
+        '[heat_capacity]\nmodel = "mixture"\nrange = ["4 K", "300 K"]\n'
+        'source = "mixture rule"\n'
+        'components = [{ material = "copperr", mass_fraction = 0.5 },'
+        ' { material = "ptfe", mass_fraction = 0.5 }]\n'
+    )
+    use_folder(monkeypatch, tmp_path)
+    assert "blend" not in library.material_ids()
+    (p,) = library.library_problems()
+    assert "copperr" in str(p) and "copper" in p.suggestions
