@@ -315,11 +315,19 @@ def superconducting_electronic_heat_capacity(temperature, gamma, critical_temper
 _BCS_CACHE: dict[float, float] = {}
 
 
-def _bcs_prefactor(b: float) -> float:
-    if b not in _BCS_CACHE:
-        from scipy.special import exp1
+def _exponential_integral_e1(x: float) -> float:
+    """E1(x) for 0 < x <= 10 by its power series (Abramowitz & Stegun 5.1.11)."""
+    total, term = 0.0, 1.0
+    for k in range(1, 80):
+        term *= -x / k
+        total += term / k
+    return -0.5772156649015329 - math.log(x) - total
 
-        _BCS_CACHE[b] = 1.0 / float(exp1(b))
+
+def _bcs_prefactor(b: float) -> float:
+    # scipy.special.exp1 would do; the series avoids importing scipy at start-up
+    if b not in _BCS_CACHE:
+        _BCS_CACHE[b] = 1.0 / _exponential_integral_e1(float(b))
     return _BCS_CACHE[b]
 
 

@@ -288,3 +288,12 @@ def test_debye_heat_capacity_is_bounded(theta, temps):
     assert np.all(c >= 0.0)
     assert np.all(c <= 3 * R * (1 + 1e-12))
     assert np.all(np.diff(c) >= -1e-12)
+
+
+@pytest.mark.parametrize("x", [0.5, 1.0, 1.44, 3.0, 5.0])
+def test_exponential_integral_against_scipy(x):
+    # the series for E1 (Abramowitz & Stegun 5.1.11) against scipy.special.exp1; the
+    # alternating series loses about 1e-13 to cancellation at x = 5
+    from scipy.special import exp1
+
+    assert solids._exponential_integral_e1(x) == pytest.approx(float(exp1(x)), rel=1e-11)
