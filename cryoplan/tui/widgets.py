@@ -1,0 +1,554 @@
+"""Widgets of the dashboard: the panel bar, figures from report blocks, terminal charts,
+the cold-mass editor, the edit bar and the dialogs.
+
+Figures come from the printed budget's blocks (:mod:`cryoplan.report.document`); these
+widgets only lay them out. Nothing here animates or refreshes on a timer: a widget redraws
+when its content changes, and not otherwise.
+"""
+
+from __future__ import annotations
+
+from rich import box
+from rich.console import Group
+from rich.table import Table as RichTable
+from rich.text import Text
+from textual import on
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.message import Message
+from textual.screen import ModalScreen
+from textual.scrollbar import ScrollBar, ScrollBarRender
+from textual.widget import Widget
+from textual.widgets import DataTable, Input, Label, OptionList, Static
+from textual.widgets.option_list import Option
+
+from ..report.document import Paragraph
+from .charts import draw_chart, legend_text
+from .panels import PANELS
+
+#: A table header rule drawn with plain characters.
+PLAIN_BOX = box.Box("    \n    \n -- \n    \n    \n    \n    \n    \n", ascii=True)
+#: Style of a figure that changed in the last evaluation (readable without colour).
+CHANGED = "reverse bold"
+#: Colours of chart series (dropped in monochrome; the numbers and marks remain).
+SERIES_COLOURS = ["cyan", "yellow", "magenta", "green", "red", "blue", "bright_white"]
+
+
+# --- figures from report blocks -------------------------------------------------------
+
+
+def _kind(block) -> str:
+    return type(block).__name__
+
+
+def block_cells(blocks, prefix: str) -> dict[tuple, str]:
+    """Every figure of ``blocks`` by a stable key (table, row label, column), to find
+    the figures that changed between two evaluations."""
+    cells: dict[tuple, str] = {}
+    for n, b in enumerate(blocks):
+        kind = _kind(b)
+        if kind == "Table":
+            tkey = b.name or b.title or f"table {n}"
+            for r, row in enumerate(b.rows):
+                label = row[0] if row else str(r)
+                for h, value in zip(b.headers[1:], row[1:]):
+                    cells[(prefix, tkey, label, h)] = str(value)
+        elif kind == "Paragraph":
+            cells[(prefix, "p", n)] = b.text
+        elif kind == "Bullets":
+            for i, item in enumerate(b.items):
+                cells[(prefix, "b", n, i)] = item
+    return cells
+
+
+def render_table(b, prefix: str, highlight: set, plain: bool, n: int = 0) -> RichTable:
+    """A report Table block as a Rich table; cells in ``highlight`` stand out."""
+    align = b.align or ("l" + "r" * (len(b.headers) - 1))
+    table = RichTable(
+        title=Text(b.title, style="italic") if b.title else None,
+        title_justify="left",
+        box=PLAIN_BOX if plain else box.SIMPLE_HEAD,
+        show_edge=False,
+        pad_edge=False,
+        collapse_padding=True,
+        header_style="bold",
+        expand=False,
+    )
+    for h, a in zip(b.headers, align):
+        table.add_column(
+            h, justify="left" if a == "l" else "right", no_wrap=a != "l", overflow="fold"
+        )
+    tkey = b.name or b.title or f"table {n}"
+    for r, row in enumerate(b.rows):
+        label = row[0] if row else str(r)
+        cells = []
+        for c, value in enumerate(row):
+            style = ""
+            if c > 0 and (prefix, tkey, label, b.headers[c]) in highlight:
+                style = CHANGED
+            cells.append(Text(str(value), style=style))
+        table.add_row(*cells)
+    return table
+
+
+def render_blocks(blocks, prefix: str, highlight: set, plain: bool):
+    """Headings, tables, paragraphs and bullets as one Rich renderable (charts excluded)."""
+    parts: list = []
+    for n, b in enumerate(blocks):
+        kind = _kind(b)
+        if kind == "Heading":
+            if parts:
+                parts.append(Text(""))
+            style = "bold underline" if b.level == 1 else "bold"
+            parts.append(Text(b.text, style=style))
+        elif kind == "Table":
+            parts.append(Text(""))
+            parts.append(render_table(b, prefix, highlight, plain, n))
+        elif kind == "Paragraph":
+            style = CHANGED if (prefix, "p", n) in highlight else ""
+            parts.append(Text(""))
+            parts.append(Text(b.text, style=style))
+        elif kind == "Bullets":
+            grid = RichTable.grid(padding=(0, 1))
+            grid.add_column(no_wrap=True)
+            grid.add_column(ratio=1)
+            for i, item in enumerate(b.items, start=1):
+                head = f"[{i}]" if b.numbered else "-"
+                style = CHANGED if (prefix, "b", n, i - 1) in highlight else ""
+                grid.add_row(head, Text(item, style=style))
+            parts.append(grid)
+    return Group(*parts)
+
+
+class Figures(Static):
+    """Report blocks (no charts) rendered as text and tables."""
+
+    DEFAULT_CSS = "Figures { height: auto; }"
+
+    def show(self, blocks, prefix: str, highlight: set, plain: bool) -> None:
+        self.blocks = blocks
+        self.update(render_blocks(blocks, prefix, highlight, plain))
+
+
+class ChartView(Widget):
+    """A line chart of a report Chart block, drawn to the widget's size."""
+
+    DEFAULT_CSS = "ChartView { height: 14; }"
+
+    def __init__(self, chart=None, plain: bool = False, **kwargs) -> None:
+        super().__init__(**kwargs)
+        self.chart = chart
+        self.plain = plain
+
+    def set_chart(self, chart, plain: bool) -> None:
+        self.chart, self.plain = chart, plain
+        self.refresh()
+
+    def chart_text(self, width: int, height: int) -> Text:
+        c = self.chart
+        if c is None:
+            return Text("")
+        drawn = draw_chart(
+            c.series,
+            width,
+            max(height - 2, 5),
+            plain=self.plain,
+            x_label=c.x_label,
+            y_label=c.y_label,
+            log_x=getattr(c, "log_x", False),
+        )
+        out = Text(c.title[:width], style="bold")
+        for line, owners in zip(drawn.lines, drawn.owners):
+            out.append("\n")
+            row = Text(line)
+            if not self.plain:
+                for col, k in enumerate(owners):
+                    if k >= 0:
+                        row.stylize(SERIES_COLOURS[k % len(SERIES_COLOURS)], col, col + 1)
+            out.append_text(row)
+        out.append("\n")
+        legend = legend_text(drawn.legend, self.plain)
+        out.append(Text(legend[:width]))
+        return out
+
+    def render(self):
+        return self.chart_text(self.size.width, self.size.height)
+
+
+class PlainScrollBarRender(ScrollBarRender):
+    """Scroll bars without block glyphs: the thumb is reversed blanks only."""
+
+    VERTICAL_BARS = [" "] * 8
+    HORIZONTAL_BARS = [" "] * 8
+
+
+def use_plain_scrollbars(plain: bool) -> None:
+    """Draw every scroll bar of the process with plain glyphs (or the usual ones)."""
+    ScrollBar.renderer = PlainScrollBarRender if plain else ScrollBarRender
+
+
+class ResultsPanel(VerticalScroll):
+    """A scrolling panel of report blocks: runs of text and tables, and charts."""
+
+    DEFAULT_CSS = "ResultsPanel { height: 1fr; }"
+
+    def __init__(self, prefix: str, **kwargs) -> None:
+        super().__init__(**kwargs)
+        self.prefix = prefix
+        self._shape: list[str] = []
+
+    def show(self, blocks, highlight: set, plain: bool, absent: str = "") -> None:
+        runs: list[tuple[str, object]] = []
+        for b in blocks:
+            if _kind(b) == "Chart":
+                runs.append(("chart", b))
+            elif runs and runs[-1][0] == "text":
+                runs[-1][1].append(b)
+            else:
+                runs.append(("text", [b]))
+        if not runs:
+            runs = [("text", [Paragraph(absent)])]
+        shape = [kind for kind, _ in runs]
+        if shape != self._shape:
+            self.remove_children()
+            widgets = [ChartView(classes="chart") if k == "chart" else Figures() for k in shape]
+            self.mount_all(widgets)
+            self._shape = shape
+        for widget, (kind, content) in zip(self.children, runs):
+            if kind == "chart":
+                widget.set_chart(content, plain)
+            else:
+                widget.show(content, self.prefix, highlight, plain)
+
+
+class PanelBar(Static):
+    """One line naming the panels and their keys; the open one is bracketed."""
+
+    def __init__(self, **kwargs) -> None:
+        super().__init__(**kwargs)
+        self.active = 0
+
+    def set_active(self, index: int) -> None:
+        self.active = index
+        out = Text()
+        for n, (_, title) in enumerate(PANELS):
+            label = f"{n + 1} {title}"
+            if n == self.active:
+                out.append(f"[{label}]", style="reverse bold")
+            else:
+                out.append(f" {label} ")
+            out.append(" ")
+        self.update(out)
+
+
+# --- the cold-mass editor --------------------------------------------------------------
+
+
+class ColdMassTable(DataTable):
+    """Stages and parts as written in the plan; enter edits the cell under the cursor."""
+
+    BINDINGS = [
+        Binding("enter", "edit", "Edit", key_display="enter"),
+        Binding("m", "material", "Material"),
+        Binding("a", "add_part", "Add part"),
+        Binding("n", "add_stage", "New stage", show=False),
+        Binding("x,delete", "remove", "Remove", key_display="x"),
+    ]
+
+    COLUMNS = [
+        ("name", "Stage / part", 22),
+        ("temperature", "T", 8),
+        ("material", "Material", 20),
+        ("mass", "Mass", 10),
+        ("start", "Start", 9),
+    ]
+
+    class EditRequested(Message):
+        """The user asked to change a field (or add, remove, pick a material)."""
+
+        def __init__(self, action: str, row: str, column: str) -> None:
+            super().__init__()
+            self.action, self.row, self.column = action, row, column
+
+    def on_mount(self) -> None:
+        self.cursor_type = "cell"
+        self.zebra_stripes = False
+        for key, label, width in self.COLUMNS:
+            self.add_column(label, key=key, width=width)
+
+    def fill(self, stages, totals: dict[str, str], default_start: str) -> None:
+        """Show ``stages`` (:class:`~cryoplan.tui.editing.StageRow`), keeping the cursor."""
+        row, col = self.cursor_coordinate
+        self.clear()
+        for st in stages:
+            mass = totals.get(st.name, "")
+            self.add_row(
+                Text(st.name, style="bold"),
+                st.temperature,
+                "",
+                Text(mass, style="dim"),
+                "",
+                key=f"s{st.index}",
+            )
+            for p in st.parts:
+                if p.how == "mass":
+                    mass_text = Text(p.mass + (f" x{p.count}" if p.count > 1 else ""))
+                else:
+                    mass_text = Text(f"({p.how})", style="dim")
+                start = Text(p.start) if p.start else Text(f"({default_start})", style="dim")
+                self.add_row(
+                    "  " + p.name, "", p.material, mass_text, start, key=f"p{st.index}.{p.index}"
+                )
+        if self.row_count:
+            self.move_cursor(row=min(row, self.row_count - 1), column=col, animate=False)
+
+    def current(self) -> tuple[str, str]:
+        """(row key, column key) under the cursor."""
+        if not self.row_count:
+            return "", ""
+        keys = self.coordinate_to_cell_key(self.cursor_coordinate)
+        return str(keys.row_key.value), str(keys.column_key.value)
+
+    def _ask(self, action: str) -> None:
+        row, col = self.current()
+        self.post_message(self.EditRequested(action, row, col))
+
+    def action_edit(self) -> None:
+        self._ask("edit")
+
+    def action_material(self) -> None:
+        self._ask("material")
+
+    def action_add_part(self) -> None:
+        self._ask("add_part")
+
+    def action_add_stage(self) -> None:
+        self._ask("add_stage")
+
+    def action_remove(self) -> None:
+        self._ask("remove")
+
+
+class EditBar(Vertical):
+    """The field being edited: what it is, the entry, and the reason a bad entry is refused."""
+
+    BINDINGS = [Binding("escape", "cancel", "Cancel", show=True)]
+
+    class Cancelled(Message):
+        pass
+
+    def compose(self) -> ComposeResult:
+        with Horizontal(id="edit-line"):
+            yield Label("", id="edit-label")
+            yield Input(id="edit-input", select_on_focus=True)
+        yield Static("", id="edit-reason", markup=False)
+
+    def on_mount(self) -> None:
+        self.query_one(Input).cursor_blink = False
+
+    def action_cancel(self) -> None:
+        self.post_message(self.Cancelled())
+
+
+# --- dialogs ----------------------------------------------------------------------------
+
+
+class ConfirmScreen(ModalScreen[bool]):
+    """A yes-or-no question."""
+
+    BINDINGS = [
+        Binding("y,enter", "answer(True)", "Yes"),
+        Binding("n,escape", "answer(False)", "No"),
+    ]
+
+    def __init__(self, question: str, yes: str = "yes", no: str = "no") -> None:
+        super().__init__()
+        self.question, self.yes, self.no = question, yes, no
+
+    def compose(self) -> ComposeResult:
+        with Vertical(classes="dialog"):
+            yield Static(self.question, markup=False, classes="question")
+            yield Static(
+                f"y / enter: {self.yes}    n / escape: {self.no}", markup=False, classes="keys"
+            )
+
+    def action_answer(self, value: bool) -> None:
+        self.dismiss(value)
+
+
+class QuitScreen(ModalScreen[str]):
+    """Unsaved edits: save and quit, quit without saving, or stay."""
+
+    BINDINGS = [
+        Binding("s", "answer('save')", "Save and quit"),
+        Binding("d", "answer('discard')", "Discard and quit"),
+        Binding("escape,c", "answer('cancel')", "Stay"),
+    ]
+
+    def __init__(self, name: str) -> None:
+        super().__init__()
+        self.plan_name = name
+
+    def compose(self) -> ComposeResult:
+        with Vertical(classes="dialog"):
+            yield Static(f"{self.plan_name} has unsaved edits.", markup=False, classes="question")
+            yield Static(
+                "s: save and quit    d: quit without saving    escape: stay",
+                markup=False,
+                classes="keys",
+            )
+
+    def action_answer(self, value: str) -> None:
+        self.dismiss(value)
+
+
+class PromptScreen(ModalScreen[str | None]):
+    """One line of text, such as a file name."""
+
+    BINDINGS = [Binding("escape", "cancel", "Cancel")]
+
+    def __init__(self, question: str, value: str = "") -> None:
+        super().__init__()
+        self.question, self.value = question, value
+
+    def compose(self) -> ComposeResult:
+        with Vertical(classes="dialog"):
+            yield Static(self.question, markup=False, classes="question")
+            yield Input(self.value, id="prompt-input")
+            yield Static("enter: accept    escape: cancel", markup=False, classes="keys")
+
+    def on_mount(self) -> None:
+        self.query_one(Input).cursor_blink = False
+
+    @on(Input.Submitted)
+    def _accept(self, event: Input.Submitted) -> None:
+        self.dismiss(event.value.strip() or None)
+
+    def action_cancel(self) -> None:
+        self.dismiss(None)
+
+
+class MaterialPicker(ModalScreen[str | None]):
+    """Materials that match what is typed (id or name), best first."""
+
+    BINDINGS = [
+        Binding("escape", "cancel", "Cancel"),
+        Binding("down", "move(1)", "Next", show=False),
+        Binding("up", "move(-1)", "Previous", show=False),
+    ]
+
+    def __init__(self, materials: list[tuple[str, str]], current: str = "") -> None:
+        super().__init__()
+        self.materials = materials
+        self.current = current
+
+    def compose(self) -> ComposeResult:
+        with Vertical(classes="dialog picker"):
+            yield Static("Material: type to find, enter to pick", markup=False, classes="question")
+            yield Input(id="picker-input", placeholder="e.g. copper, 304, epoxy")
+            yield OptionList(id="picker-list")
+            yield Static("", id="picker-count", markup=False, classes="keys")
+
+    def on_mount(self) -> None:
+        self.query_one(Input).cursor_blink = False
+        self._fill("")
+
+    def matches(self, typed: str) -> list[tuple[str, str]]:
+        """Materials whose id or name contains every word typed; ids that start with the
+        text first, then close spellings (difflib) when nothing contains it."""
+        from ..errors import closest
+
+        words = typed.lower().split()
+        if not words:
+            return list(self.materials)
+        hits = [
+            (i, n)
+            for i, n in self.materials
+            if all(w in i.lower() or w in n.lower() for w in words)
+        ]
+        hits.sort(key=lambda m: (not m[0].lower().startswith(words[0]), m[0]))
+        if not hits:
+            ids = closest(typed, [i for i, _ in self.materials], n=5)
+            hits = [(i, n) for i, n in self.materials if i in ids]
+        return hits
+
+    def _fill(self, typed: str) -> None:
+        found = self.matches(typed)
+        options = self.query_one(OptionList)
+        options.clear_options()
+        options.add_options([Option(f"{i}  {n}" if n and n != i else i, id=i) for i, n in found])
+        if found:
+            options.highlighted = 0
+        self.query_one("#picker-count", Static).update(
+            f"{len(found)} of {len(self.materials)} materials    enter: pick    escape: cancel"
+        )
+
+    @on(Input.Changed)
+    def _typed(self, event: Input.Changed) -> None:
+        self._fill(event.value)
+
+    @on(Input.Submitted)
+    def _pick(self) -> None:
+        options = self.query_one(OptionList)
+        if options.highlighted is not None and options.option_count:
+            self.dismiss(options.get_option_at_index(options.highlighted).id)
+
+    @on(OptionList.OptionSelected)
+    def _selected(self, event: OptionList.OptionSelected) -> None:
+        self.dismiss(event.option.id)
+
+    def action_move(self, step: int) -> None:
+        options = self.query_one(OptionList)
+        if not options.option_count:
+            return
+        now = options.highlighted if options.highlighted is not None else -1
+        options.highlighted = max(0, min(options.option_count - 1, now + step))
+
+    def action_cancel(self) -> None:
+        self.dismiss(None)
+
+
+HELP_TEXT = """\
+Keys of the cryoplan dashboard (keyboard alone is enough)
+
+  1 .. 6         open a panel: cold mass, budget, once cold, refrigeration,
+                 room, notes            [ and ] : previous / next panel
+  tab            move between the table, the figures and the edit field
+  arrows, pgup   move the cursor; scroll a panel
+
+Cold mass (panel 1)
+  enter          edit the cell: a name, a temperature, a mass or a start,
+                 with units ("22 kg", "300 g", "4.2 K"); empty start: the
+                 cooldown's start.  A bad entry is marked with the reason and
+                 the last good value stays in force.  escape: cancel
+  m              pick a material (type to find it)
+  a              add a part to the stage under the cursor
+  n              add a stage          x / delete : remove the row's part or stage
+
+Everywhere
+  u / ctrl+z     undo            r / ctrl+y   redo
+  ctrl+s         save (the previous file is kept as PLAN.bak)
+  p              print: write the printed budget to a file, then send it to
+                 the printer (lp or lpr) after a confirmation
+  f5             reload the plan from disk
+  ?  / f1        this help       q            quit (asks when edits are unsaved)
+
+Figures that changed with the last edit are shown reversed for a moment.
+Every edit re-evaluates the plan in the background; the screen never waits.
+Plain characters: --plain or CRYOPLAN_PLAIN=1; no colour: NO_COLOR=1.
+"""
+
+
+class HelpScreen(ModalScreen[None]):
+    """The keys, on a screen of their own."""
+
+    BINDINGS = [Binding("escape,q,question_mark,f1", "close", "Close")]
+
+    def compose(self) -> ComposeResult:
+        with VerticalScroll(classes="dialog help"):
+            yield Static(HELP_TEXT, markup=False)
+            yield Static("escape: close", markup=False, classes="keys")
+
+    def action_close(self) -> None:
+        self.dismiss(None)
