@@ -162,11 +162,26 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
         except InputError as exc:
             exc.file, exc.line = plan.path, cs.line
             raise
+    cmap, map_index = None, ()
+    if cooler.capacity_map is not None:
+        cm = cooler.capacity_map
+        try:
+            cmap = rf.CapacityMap(
+                cm["first_K"], cm["second_K"], cm["first_W"], cm["second_W"], key="cooler.map"
+            )
+        except InputError as exc:
+            exc.file, exc.line = plan.path, cooler.line
+            raise
+        map_index = (names.index(cm["stages"][0]), names.index(cm["stages"][1]))
     carnot_w_per_w = np.array([float(rf.carnot_specific_power(t, plan.ambient)) for t in targets])
     carnot_w = carnot_w_per_w * load_at_target
     capacity_at_target = np.array(
         [float(c(t)) if c is not None else np.nan for c, t in zip(curves, targets)]
     )
+    if cmap is not None:
+        q1, q2 = cmap(targets[map_index[0]], targets[map_index[1]])
+        capacity_at_target[map_index[0]] = float(q1)
+        capacity_at_target[map_index[1]] = float(q2)
     links = []
     for link in cooler.links:
         a, b = link["between"]
@@ -195,6 +210,10 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
         for k, c in enumerate(curves):
             if c is not None:
                 out[k] = c(T[k])
+        if cmap is not None:
+            i, j = map_index
+            q1, q2 = cmap(T[i], T[j])
+            out[i], out[j] = q1, q2
         return out
 
     stages_out = []
@@ -210,7 +229,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
         exc.line = exc.line or (cooler.stages[0].line if cooler.stages else None)
         raise
     for k, name in enumerate(names):
-        cooled = curves[k] is not None
+        cooled = curves[k] is not None or k in map_index
         flag = ""
         if cooled and load_at_target[k] > capacity_at_target[k]:
             flag = (
@@ -237,7 +256,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
         "percent_of_carnot": None,
         "notes": notes,
     }
-    cold = [k for k, c in enumerate(curves) if c is not None]
+    cold = [k for k, c in enumerate(curves) if c is not None or k in map_index]
     if cold:
         coldest = min(cold, key=lambda k: targets[k])
         cap = capacity_at_target[coldest]
@@ -257,7 +276,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
     elif cooler.percent_carnot:
         result["real_input_W"] = carnot_total / (cooler.percent_carnot / 100)
         result["percent_of_carnot"] = cooler.percent_carnot
-    if cold and not plan.cooldown.steps:
+    if cold:
         from .library import material as mat
 
         def heat_capacity_of(stage):
@@ -284,12 +303,14 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
                 if s.parts
                 else plan.cooldown.start
             )
+            if plan.cooldown.steps:  # a cryogen precool first: the cooler takes over there
+                start = min(start, max(s.temperature, plan.cooldown.steps[-1].to))
             cstages.append(
                 rf.CooldownStage(s.name, c, start, s.temperature, enthalpy=h, entropy=e)
             )
         sim = rf.simulate_cooldown(
             cstages,
-            curves,
+            capacity_fn,
             load_fn,
             links,
             input_power=cooler.input_power,

@@ -27,6 +27,10 @@ except ModuleNotFoundError:  # pragma: no cover - Python 3.10
 #: Real multilayer insulation against the calorimeter correlation (common practice: about 2).
 MLI_DEGRADATION = 2.0
 
+#: Emissivity of a clean metal surface at low temperature when neither the load nor its
+#: surface materials give one (common practice for polished copper or aluminium: 0.02-0.06).
+DEFAULT_EMISSIVITY = 0.05
+
 #: Half a kelvin below a boiling point still means the boiling point ("77 K" for nitrogen).
 BOILING_POINT_SNAP_K = 0.5
 
@@ -141,6 +145,8 @@ class Cooler:
     links: list[dict[str, Any]]
     max_time: float  # s
     key: str = "cooler"
+    capacity_map: dict[str, Any] | None = None  # two-stage map: stages, grids, powers
+    line: int | None = None
 
 
 @dataclass
@@ -237,6 +243,7 @@ LOAD_KEYS = {
         "area",
         "from",
         "emissivity",
+        "surfaces",
         "layers",
         "area_ratio",
         "layer_density",
@@ -249,7 +256,8 @@ LOAD_KEYS = {
     "neck": {"material", "area", "length", "from", "vapor_cooled"},
 }
 LOAD_COMMON = {"stage", "kind", "name"}
-COOLER_KEYS = {"input_power", "percent_carnot", "stage", "link", "max_time"}
+COOLER_KEYS = {"input_power", "percent_carnot", "stage", "link", "max_time", "map"}
+COOLER_MAP_KEYS = {"stages", "first_K", "second_K", "first_W", "second_W"}
 COOLER_STAGE_KEYS = {"stage", "capacity", "map"}
 LINK_KEYS = {"between", "conductance", "material", "area", "length", "count"}
 ROOM_KEYS = {
@@ -909,6 +917,33 @@ def _loads(reader: _Reader, raw_list, stages: list[Stage]) -> list[Load]:
     return loads
 
 
+def _surface_emissivities(reader: _Reader, value, key: str) -> list[float]:
+    """[cold, warm] emissivities from the materials database's values for the surfaces."""
+    from .library import material
+
+    if not (isinstance(value, list) and len(value) == 2):
+        reader.error(
+            "not a pair of surfaces",
+            key,
+            expected="two material ids: [cold surface, warm surface]",
+            found=repr(value),
+        )
+        return [DEFAULT_EMISSIVITY, DEFAULT_EMISSIVITY]
+    out = []
+    for name in value:
+        mat_id = _known_material(reader, name, key)
+        e = material(mat_id).emissivity if mat_id else None
+        if mat_id and e is None:
+            reader.error(
+                f"'{mat_id}' has no emissivity in the database",
+                key,
+                expected="a material with an emissivity, or 'emissivity ='",
+                found=repr(name),
+            )
+        out.append(e if e is not None else DEFAULT_EMISSIVITY)
+    return out
+
+
 def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None:
     n_errors = len(reader.errors)
     v: dict[str, Any] = {}
@@ -926,7 +961,9 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         v["power"] = reader.quantity(raw, "power", key, "power", required=True, nonnegative=True)
     elif kind == "radiation":
         v["area"] = reader.quantity(raw, "area", key, "area", required=True, positive=True)
-        em = raw.get("emissivity", 0.05)  # default from the materials when not given
+        em = raw.get("emissivity", DEFAULT_EMISSIVITY)
+        if "surfaces" in raw and "emissivity" not in raw:
+            em = _surface_emissivities(reader, raw["surfaces"], f"{key}.surfaces")
         ems = em if isinstance(em, list) else [em, em]
         if len(ems) != 2:
             reader.error(
@@ -1166,14 +1203,110 @@ def _cooler(reader: _Reader, raw, stages: list[Stage]) -> Cooler | None:
             )
             link["count"] = reader.count(lraw, "count", lkey, 1)
         links.append(link)
-    if not cstages and not reader.errors:
+    cmap = None
+    if "map" in raw:
+        cmap = _cooler_map(reader, raw["map"], names)
+    if not cstages and cmap is None and not reader.errors:
         reader.error(
             "the cooler has no stage",
             "cooler.stage",
-            expected="at least one [[cooler.stage]]",
+            expected="at least one [[cooler.stage]] or a [cooler.map]",
             found="none",
         )
-    return Cooler(power, pc, cstages, links, max_time or 60 * 86400.0)
+    if power is None and pc is None:
+        reader.error(
+            "the cooler's input power is missing",
+            "cooler.input_power",
+            expected="input_power such as '7 kW' (or percent_carnot)",
+            found="neither",
+        )
+    if cmap is not None:
+        mapped = set(cmap["stages"])
+        for cs in cstages:
+            if cs.stage in mapped:
+                reader.error(
+                    "a stage both in the map and in [[cooler.stage]]",
+                    f"{cs.key}.stage",
+                    expected="one capacity per stage",
+                    found=repr(cs.stage),
+                )
+    return Cooler(
+        power,
+        pc,
+        cstages,
+        links,
+        max_time or 60 * 86400.0,
+        capacity_map=cmap,
+        line=reader.lines.line_of("cooler"),
+    )
+
+
+def _cooler_map(reader: _Reader, raw, names: set[str]) -> dict | None:
+    """A two-stage capacity map: each stage's capacity against both stage temperatures."""
+    key = "cooler.map"
+    raw = reader.table(raw, key)
+    reader.keys(raw, COOLER_MAP_KEYS, key)
+    n = len(reader.errors)
+    stages = raw.get("stages")
+    if not (
+        isinstance(stages, list)
+        and len(stages) == 2
+        and all(isinstance(x, str) and x in names for x in stages)
+    ):
+        reader.error(
+            "the map names its two stages",
+            f"{key}.stages",
+            expected="two stage names, warmer first",
+            found=repr(stages),
+        )
+    grids = {}
+    for g in ("first_K", "second_K"):
+        v = raw.get(g)
+        ok = (
+            isinstance(v, list)
+            and len(v) >= 2
+            and all(isinstance(x, (int, float)) and not isinstance(x, bool) and x > 0 for x in v)
+        )
+        if not ok or any(b <= a for a, b in zip(v, v[1:])):
+            reader.error(
+                "not a temperature grid",
+                f"{key}.{g}",
+                expected="two or more temperatures in K, increasing",
+                found=repr(v),
+            )
+        else:
+            grids[g] = [float(x) for x in v]
+    powers = {}
+    for p in ("first_W", "second_W"):
+        v = raw.get(p)
+        if len(grids) == 2:
+            rows, cols = len(grids["first_K"]), len(grids["second_K"])
+            ok = (
+                isinstance(v, list)
+                and len(v) == rows
+                and all(
+                    isinstance(r, list)
+                    and len(r) == cols
+                    and all(
+                        isinstance(x, (int, float)) and not isinstance(x, bool) and x >= 0
+                        for x in r
+                    )
+                    for r in v
+                )
+            )
+            if not ok:
+                reader.error(
+                    "not a capacity table",
+                    f"{key}.{p}",
+                    expected=f"{rows} rows (first_K) of {cols} powers in W "
+                    "(second_K), none negative",
+                    found=repr(v),
+                )
+            else:
+                powers[p] = [[float(x) for x in r] for r in v]
+    if len(reader.errors) != n:
+        return None
+    return {"stages": list(stages), **grids, **powers}
 
 
 def _rooms(reader: _Reader, raw) -> list[Room]:

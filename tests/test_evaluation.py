@@ -336,3 +336,82 @@ def test_output_file_is_written_whole(tmp_path):
     assert out.read_text().startswith("# Cryoplan budget")
     assert main(["print", "--demo", "-o", str(tmp_path / "nofolder" / "x.txt")]) == 2
     assert not (tmp_path / "nofolder").exists()
+
+
+MAP = textwrap.dedent(
+    """\
+    title = "map"
+    ambient = "300 K"
+
+    [[stage]]
+    name = "first"
+    temperature = "50 K"
+    parts = [ { name = "shield", material = "aluminium-6061", mass = "10 kg" } ]
+
+    [[stage]]
+    name = "second"
+    temperature = "4.2 K"
+    parts = [ { name = "plate", material = "copper", mass = "10 kg" } ]
+
+    [cooldown]
+    start = "300 K"
+
+    [cooler]
+    input_power = "7 kW"
+    [cooler.map]
+    stages = ["first", "second"]
+    first_K = [15, 20, 300]
+    second_K = [2.0, 2.5, 300]
+    first_W = [[0, 0, 0], [40, 40, 40], [40, 40, 40]]
+    second_W = [[0, 20, 20], [0, 20, 20], [0, 20, 20]]
+    """
+)
+
+
+def test_two_stage_map_with_constant_capacities_matches_enthalpy_over_power():
+    # a map flat above 20 K and 2.5 K is a constant capacity per stage there (the targets,
+    # 50 K and 4.2 K, lie above), so each stage's time is
+    # m [H(T1) - H(T2)] / Q (exact energy balance), to the integration's 0.5 %
+    data = evaluate_text(MAP)
+    times = data["refrigeration"]["cooldown"]["time_to_target_s"]
+    al, cu = cryoplan.material("aluminium-6061"), cryoplan.material("copper")
+    assert times["first"] == pytest.approx(
+        10 * float(al.enthalpy(300) - al.enthalpy(50)) / 40, rel=0.005
+    )
+    assert times["second"] == pytest.approx(
+        10 * float(cu.enthalpy(300) - cu.enthalpy(4.2)) / 20, rel=0.005
+    )
+
+
+def test_nitrogen_precool_shortens_the_cooler_cooldown():
+    precool = MAP.replace(
+        'start = "300 K"\n', 'start = "300 K"\nsteps = [ { cryogen = "nitrogen", to = "80 K" } ]\n'
+    )
+    plain = evaluate_text(MAP)["summary"]["cooldown_time_h"]
+    with_n2 = evaluate_text(precool)
+    assert with_n2["summary"]["cooldown_time_h"] < plain
+    assert with_n2["summary"]["cooldown_liquid_L"]["nitrogen"] > 0
+    # from 80 K the plate's time is m [H(80) - H(4.2)] / Q (exact energy balance)
+    cu = cryoplan.material("copper")
+    t = with_n2["refrigeration"]["cooldown"]["time_to_target_s"]["second"]
+    assert t == pytest.approx(10 * float(cu.enthalpy(80) - cu.enthalpy(4.2)) / 20, rel=0.005)
+
+
+@pytest.mark.parametrize(
+    "old, new, key",
+    [
+        ('stages = ["first", "second"]', 'stages = ["first", "third"]', "cooler.map.stages"),
+        ("first_K = [15, 20, 300]", "first_K = [300, 20, 15]", "cooler.map.first_K"),
+        (
+            "second_W = [[0, 20, 20], [0, 20, 20], [0, 20, 20]]",
+            "second_W = [[0, 20, 20], [0, 20, 20], [0, 20]]",
+            "cooler.map.second_W",
+        ),
+        ('input_power = "7 kW"\n', "", "cooler.input_power"),
+    ],
+)
+def test_bad_cooler_maps_and_missing_input_power(old, new, key):
+    with pytest.raises((InputError, InputErrors)) as info:
+        parse_plan(MAP.replace(old, new, 1), "plan.toml")
+    errs = info.value.errors if isinstance(info.value, InputErrors) else [info.value]
+    assert any(e.key == key for e in errs), [str(e) for e in errs]
