@@ -11,19 +11,17 @@ import os
 import re
 import sys
 
+import pypdf  # the test extra; matplotlib comes with the pdf extra (CI installs both)
 import pytest
 
-pypdf = pytest.importorskip("pypdf")
-pytest.importorskip("matplotlib")
-
-from cryoplan.cli import main  # noqa: E402
-from cryoplan.errors import CryoplanError, InputError  # noqa: E402
-from cryoplan.evaluation import evaluate  # noqa: E402
-from cryoplan.plan import examples_dir, load_plan  # noqa: E402
-from cryoplan.report import render  # noqa: E402
-from cryoplan.report.budget import build_document  # noqa: E402
-from cryoplan.report.document import Bullets, Chart, Heading, Paragraph, Table  # noqa: E402
-from cryoplan.report.pdf import (  # noqa: E402
+from cryoplan.cli import main
+from cryoplan.errors import CryoplanError, InputError
+from cryoplan.evaluation import evaluate
+from cryoplan.plan import examples_dir, load_plan
+from cryoplan.report import render
+from cryoplan.report.budget import build_document
+from cryoplan.report.document import Bullets, Chart, Heading, Paragraph, Table
+from cryoplan.report.pdf import (
     MARGIN_X,
     PAPER_SIZES,
     layout_blocks,
@@ -54,12 +52,15 @@ def example(request):
     payload = render_pdf(data, paper="a4")
     reader = _reader(payload)
     pages = [p.extract_text() for p in reader.pages]
+    # the running text without the page footers (drawn last on each page), which would
+    # interrupt an item broken over two pages
+    body = "\n".join(p[: p.rfind("cryoplan budget:")] for p in pages)
     return {
         "data": data,
         "payload": payload,
         "reader": reader,
         "pages": pages,
-        "text": "\n".join(pages),
+        "text": body,
         "blocks": build_document(data),
     }
 
@@ -72,6 +73,9 @@ def test_pdf_opens_on_a4(example):
     payload, reader = example["payload"], example["reader"]
     assert payload.startswith(b"%PDF-")
     assert len(reader.pages) >= 2  # title, summary, sections and sources never fit one page
+    n = len(reader.pages)
+    for k, text in enumerate(example["pages"], start=1):
+        assert "cryoplan budget:" in text and f"page {k} of {n}" in text  # the footer
     w, h = PAPER_SIZES["a4"]
     for page in reader.pages:
         # ISO 216 A4, 210 mm x 297 mm; 0.5 pt covers the rounding of the page box
@@ -319,3 +323,55 @@ def test_missing_matplotlib_says_to_install_the_pdf_extra(monkeypatch):
     with pytest.raises(CryoplanError) as exc:
         render_blocks_pdf([Paragraph("x")])
     assert "pdf extra" in str(exc.value) and "matplotlib" in str(exc.value)
+
+
+def _drawn_extents(layout, page):
+    """(x0, x1) [pt] of every text drawn on a page, measured by matplotlib at 720 dpi, where
+    hinting moves a glyph by well under 0.1 pt: independent of the layout's own measure."""
+    from matplotlib.backends.backend_agg import RendererAgg
+    from matplotlib.figure import Figure
+
+    from cryoplan.report.pdf import _draw_page
+
+    dpi = 720
+    w, h = layout.width, layout.height
+    renderer = RendererAgg(int(w / 72 * dpi), int(h / 72 * dpi), dpi)
+    fig = _draw_page(Figure, page, w, h, "", "")
+    fig.set_dpi(dpi)
+    out = []
+    for text in fig.texts:
+        if text.get_text():
+            box = text.get_window_extent(renderer)
+            out.append((text.get_text(), box.x0 / dpi * 72, box.x1 / dpi * 72))
+    return out
+
+
+@pytest.mark.parametrize("words", [2, 8, 11, 12, 13, 14, 16, 30])
+def test_drawn_table_text_stays_inside_its_rules(words):
+    """From a table that fits in body type to ones that drop to smaller type and wrap."""
+    detail = " ".join(["phosphor-bronze", "sunk", "at", "shield"] * 8)
+    detail = " ".join(detail.split()[:words])
+    rows = [["4K plate", "coax and DC wiring", "radiation", "0.0267", detail]] * 3
+    table = Table(["Stage", "Load", "Kind", "Power [W]", "Detail"], rows, "lllrl")
+    layout = layout_blocks([table], "a4", title="")
+    rules = [op for op in layout.pages[0].ops if op[0] == "rule"]
+    left = min(op[1] for op in rules)
+    right = max(op[2] for op in rules)
+    words = {w for row in [table.headers] + rows for cell in row for w in cell.split()}
+    words |= {"Cryoplan", "budget"}  # the title block above the table
+    for text, x0, x1 in _drawn_extents(layout, layout.pages[0]):
+        # 1 pt: the side bearings of the first and last glyph
+        assert left - 1 <= x0 and x1 <= right + 1, (text, x0, x1, right)
+        assert set(text.split()) <= words  # cells wrap between words, never inside one
+
+
+def test_drawn_text_stays_inside_the_margins():
+    blocks = [
+        Table([f"Head {k}" for k in range(10)], [[f"cell {k} text" for k in range(10)]]),
+        Paragraph("word " * 200),
+        Bullets(["item " * 50]),
+    ]
+    layout = layout_blocks(blocks, "a4", title="title " * 30)
+    for page in layout.pages:
+        for text, x0, x1 in _drawn_extents(layout, page):
+            assert MARGIN_X - 1 <= x0 and x1 <= layout.width - MARGIN_X + 1, (text, x0, x1)

@@ -90,10 +90,12 @@ def _matplotlib():
 
 
 @lru_cache(maxsize=1)
-def _renderer():
-    from matplotlib.backends.backend_agg import RendererAgg
+def _measurer():
+    # unhinted glyph advances, as the PDF backend places them (hinted widths at 72 dpi can
+    # be 10 % off at table sizes)
+    from matplotlib.textpath import TextToPath
 
-    return RendererAgg(10, 10, 72)  # 72 dpi: one pixel is one point
+    return TextToPath()
 
 
 @lru_cache(maxsize=8)
@@ -110,7 +112,7 @@ def text_width(text: str, size: float, bold: bool = False, mono: bool = False) -
     """Width [pt] of one line of text in the report's font."""
     if not text:
         return 0.0
-    w, _, _ = _renderer().get_text_width_height_descent(
+    w, _, _ = _measurer().get_text_width_height_descent(
         text, _props(size, bold, mono), ismath=False
     )
     return float(w)
@@ -129,7 +131,8 @@ def wrap(
     Words break at spaces; a word longer than a line (a long path) breaks between characters.
     """
     lines: list[str] = []
-    limit = first_width if first_width is not None else width
+    width += 0.01  # a cell exactly as wide as its text fits (rounding of the sums)
+    limit = first_width + 0.01 if first_width is not None else width
     current = ""
     for word in str(text).split():
         trial = f"{current} {word}" if current else word
@@ -396,15 +399,32 @@ def _table(layout: _Layout, block: Table) -> None:
 # --- charts -----------------------------------------------------------------------------------
 
 
+LEGEND_SIZE = 7.5
+LEGEND_ROW = 11.0  # [pt] per legend row
+LEGEND_INSIDE_MAX = 3  # more series than this: the legend goes below the plot, clear of it
+
+
+def _legend_shape(block: Chart, width: float) -> tuple[int, int]:
+    """Columns and rows of a legend set below the plot; (0, 0) when it sits inside."""
+    labels = [str(label) for label, xs, _ in block.series if len(xs)]
+    if len(labels) <= LEGEND_INSIDE_MAX:
+        return 0, 0
+    widest = max(text_width(label, LEGEND_SIZE) for label in labels) + 45  # handle and gap
+    ncol = max(1, min(3, int(width // widest)))
+    return ncol, -(-len(labels) // ncol)
+
+
 def _chart_block(layout: _Layout, block: Chart) -> None:
     title_lines = wrap(block.title, layout.text_width, 10, bold=True) if block.title else []
-    height = len(title_lines) * 13 + 4 + CHART_HEIGHT
+    _, rows = _legend_shape(block, layout.text_width)
+    chart_h = CHART_HEIGHT + (rows * LEGEND_ROW + 6 if rows else 0)
+    height = len(title_lines) * 13 + 4 + chart_h
     layout.space(9)
     layout.need(height)
     _lines(layout, title_lines, layout.left, 10, 13, bold=True)
     layout.y += 4
-    layout.chart(layout.left, layout.y, layout.text_width, CHART_HEIGHT, block)
-    layout.y += CHART_HEIGHT
+    layout.chart(layout.left, layout.y, layout.text_width, chart_h, block)
+    layout.y += chart_h
 
 
 def _finite_series(block: Chart):
@@ -426,12 +446,14 @@ def _finite_series(block: Chart):
 
 def _draw_chart(fig, page_w, page_h, x, y, w, h, block: Chart) -> None:
     left, bottom, right, top = 50.0, 30.0, 8.0, 4.0  # room for ticks and axis labels [pt]
+    ncol, rows = _legend_shape(block, w)
+    plot_h = h - (rows * LEGEND_ROW + 6 if rows else 0)
     ax = fig.add_axes(
         [
             (x + left) / page_w,
-            (page_h - y - h + bottom) / page_h,
+            (page_h - y - plot_h + bottom) / page_h,
             (w - left - right) / page_w,
-            (h - bottom - top) / page_h,
+            (plot_h - bottom - top) / page_h,
         ]
     )
     series = _finite_series(block)
@@ -470,14 +492,26 @@ def _draw_chart(fig, page_w, page_h, x, y, w, h, block: Chart) -> None:
             fontsize=9,
             parse_math=False,
         )
+    elif rows:
+        fig.legend(
+            *ax.get_legend_handles_labels(),
+            loc="upper center",
+            bbox_to_anchor=((x + w / 2) / page_w, 1 - (y + plot_h) / page_h),
+            bbox_transform=fig.transFigure,
+            ncol=ncol,
+            fontsize=LEGEND_SIZE,
+            frameon=False,
+            handlelength=3.5,
+            columnspacing=1.5,
+        )
     elif drawn > 1 or series[0][0]:
         ax.legend(
-            fontsize=7.5,
+            fontsize=LEGEND_SIZE,
             frameon=True,
             framealpha=1.0,
             edgecolor="0.3",
-            ncol=2 if drawn > 4 else 1,
             loc="best",
+            handlelength=3.5,
         )
 
 
@@ -566,8 +600,13 @@ def layout_blocks(blocks, paper: str = "a4", title: str = "", details: list[str]
     blocks = list(blocks)
     for i, b in enumerate(blocks):
         if isinstance(b, Heading):
-            nxt = blocks[i + 1] if i + 1 < len(blocks) else None
-            _heading(layout, b, _keep_height(layout, nxt))
+            # keep the heading with what follows it, through any headings right below it
+            keep, j = 0.0, i + 1
+            while j < len(blocks) and isinstance(blocks[j], Heading):
+                keep += 16.0 + 13 * 1.3 + 6
+                j += 1
+            keep += _keep_height(layout, blocks[j]) if j < len(blocks) else 0.0
+            _heading(layout, b, keep)
         elif isinstance(b, Table):
             _table(layout, b)
         elif isinstance(b, Paragraph):
