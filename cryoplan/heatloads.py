@@ -20,7 +20,6 @@ from datetime import datetime, timedelta
 from typing import NamedTuple
 
 import numpy as np
-from scipy import constants as _const
 
 from .errors import InputError, TemperatureError, UnknownNameError
 
@@ -40,8 +39,8 @@ def brentq(*args, **kwargs):
 
 
 __all__ = [
-    "stefan_boltzmann",
-    "LORENZ_NUMBER",
+    "stefan_boltzmann",  # noqa: F822 (module __getattr__)
+    "LORENZ_NUMBER",  # noqa: F822 (module __getattr__)
     "gray_body_exchange",
     "MLI_LOCKHEED_DAP_NET",
     "MLI_COMMON_PRACTICE",
@@ -69,12 +68,30 @@ __all__ = [
     "refill_schedule",
 ]
 
-#: Stefan-Boltzmann constant, [W/(m^2 K^4)] (scipy.constants, CODATA).
-stefan_boltzmann: float = _const.sigma
 
-#: Sommerfeld value of the Lorenz number, pi^2 k_B^2 / (3 e^2), [W Ohm/K^2] (about 2.443e-8;
-#: the round 2.45e-8 is the value used in the lead literature, e.g. McFee 1959).
-LORENZ_NUMBER: float = math.pi**2 * _const.k**2 / (3.0 * _const.e**2)
+class _Constants:
+    """scipy.constants, imported on first use (keeps ``cryoplan print`` fast)."""
+
+    def __getattr__(self, name):
+        from scipy import constants
+
+        return getattr(constants, name)
+
+
+_const = _Constants()
+
+
+def __getattr__(name):
+    # stefan_boltzmann: Stefan-Boltzmann constant, [W/(m^2 K^4)] (scipy.constants, CODATA).
+    # LORENZ_NUMBER: Sommerfeld value of the Lorenz number, pi^2 k_B^2 / (3 e^2),
+    # [W Ohm/K^2] (about 2.443e-8; the round 2.45e-8 is the value used in the lead
+    # literature, e.g. McFee 1959).
+    if name == "stefan_boltzmann":
+        return _const.sigma
+    if name == "LORENZ_NUMBER":
+        return math.pi**2 * _const.k**2 / (3.0 * _const.e**2)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
 
 _TORR = 101325.0 / 760.0  # Pa per torr (exact by definition)
 
@@ -247,7 +264,7 @@ def gray_body_exchange(
     ew = _fraction("emissivity_warm", emissivity_warm)
     ratio = _area_ratio(area_ratio)
     denominator = 1.0 / ec + ratio * (1.0 / ew - 1.0)
-    return _scalar(stefan_boltzmann * A * (Tw**4 - Tc**4) / denominator)
+    return _scalar(_const.sigma * A * (Tw**4 - Tc**4) / denominator)
 
 
 # --------------------------------------------------------------------------------------------
@@ -290,7 +307,7 @@ def _mli_lockheed(T_cold, T_warm, layers, layer_density, emissivity, pressure):
 
 
 def _mli_shields(T_cold, T_warm, layers, layer_density, emissivity, pressure):
-    return stefan_boltzmann * (T_warm**4 - T_cold**4) / ((layers + 1.0) * (2.0 / emissivity - 1.0))
+    return _const.sigma * (T_warm**4 - T_cold**4) / ((layers + 1.0) * (2.0 / emissivity - 1.0))
 
 
 #: The multilayer-insulation models by name: ``"lockheed"`` the empirical correlation,
