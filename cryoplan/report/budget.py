@@ -239,18 +239,21 @@ def _order(data: dict) -> list:
             [
                 cry,
                 dewars or "(no dewar sizes given)",
+                f"{litres(rng['low']['needed_L'])} / {litres(e['needed_L'])} / "
+                f"{litres(rng['high']['needed_L'])}",
                 f"{litres(rng['low']['order_L'])} / {litres(e['order_L'])} / "
                 f"{litres(rng['high']['order_L'])}",
-                f"{money(rng['low']['cost'], e['currency'])} / "
-                f"{money(rng['high']['cost'], e['currency'])}",
+                "-"
+                if rng["low"]["cost"] is None
+                else f"{rng['low']['cost']:,.0f}-{rng['high']['cost']:,.0f} {e['currency']}",
             ]
         )
     blocks.append(
         Table(
-            ["Cryogen", "Dewars", "Low/nom/high [L]", "Cost low / high"],
+            ["Cryogen", "Dewars", "Needed [L]", "Order [L]", "Cost"],
             drow,
-            "llrr",
-            title="Dewars and range",
+            "llrrr",
+            title="Dewars, low / nominal / high cases",
             name="dewars",
         )
     )
