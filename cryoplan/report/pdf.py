@@ -133,11 +133,18 @@ def wrap(
     lines: list[str] = []
     width += 0.01  # a cell exactly as wide as its text fits (rounding of the sums)
     limit = first_width + 0.01 if first_width is not None else width
-    current = ""
+    space = text_width(" ", size, bold, mono)
+    current, current_w = "", 0.0
     for word in str(text).split():
+        word_w = text_width(word, size, bold, mono)
         trial = f"{current} {word}" if current else word
-        if text_width(trial, size, bold, mono) <= limit:
-            current = trial
+        # words are measured once each and summed; only a line within half a point of the
+        # limit is measured whole (kerning across words is far smaller than that)
+        trial_w = current_w + space + word_w if current else word_w
+        if abs(trial_w - limit) < 0.5:
+            trial_w = text_width(trial, size, bold, mono)
+        if trial_w <= limit:
+            current, current_w = trial, trial_w
             continue
         if current:
             lines.append(current)
@@ -155,7 +162,7 @@ def wrap(
             lines.append(word[:cut])
             limit = width
             word = word[cut:]
-        current = word
+        current, current_w = word, text_width(word, size, bold, mono)
     if current or not lines:
         lines.append(current)
     return lines
