@@ -40,7 +40,7 @@ from cryoplan.tui.app import CryoplanApp
 async def main():
     app = CryoplanApp(demo_plan_path(), bundled=True)
     async with app.run_test(size=(80, 24)) as pilot:
-        while app.data is None:
+        while app.figures_time is None:
             await pilot.pause(0.01)
         print("first", app.first_screen_time, flush=True)
         print("figures", app.figures_time, flush=True)

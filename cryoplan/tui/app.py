@@ -134,6 +134,9 @@ class CryoplanApp(App):
         self.last_edit_seconds: float | None = None
         self.last_evaluation_seconds: float | None = None
         self.redraws = 0
+        self.loaded = False  # the first evaluation has come back
+        self._stale: set[str] = set()  # panels not yet drawn from the last evaluation
+        self.eval_error: str | None = None
         #: wall-clock time of the first screen, and an event set at each redraw after an edit
         self.first_screen_time: float | None = None
         self.figures_time: float | None = None
@@ -247,9 +250,12 @@ class CryoplanApp(App):
             if message.generation != self.generation:
                 return
         self.last_evaluation_seconds = message.seconds
+        self.loaded = True
+        self.eval_error = message.error
         if message.error:
             self.data = self.blocks = None
-            self._status(message.error)
+            first_line = message.error.splitlines()[0]
+            self._status(f"No figures: {first_line} (details in the panels)")
             self._show_results(None, None)
             return
         first = self.data is None
@@ -285,7 +291,8 @@ class CryoplanApp(App):
             changed = set()
         self._cells = cells
         self._highlight = changed
-        self._paint(data, split)
+        with self.batch_update():
+            self._paint(data, split)
         if self._mark_timer is not None:
             self._mark_timer.stop()
             self._mark_timer = None
@@ -296,12 +303,17 @@ class CryoplanApp(App):
     def _unmark(self) -> None:
         self._mark_timer = None
         self._highlight = set()
-        self._paint(self.data, panel_map.by_panel(self.blocks or []))
+        with self.batch_update():
+            self._paint(self.data, panel_map.by_panel(self.blocks or []))
 
     def _paint(self, data, split) -> None:
         plain, marked = self.plain, self._highlight
         if data is None:
-            message = self.open_error or "No figures: the plan did not evaluate (see below)."
+            message = self.open_error or self.eval_error or "No figures yet."
+            if self._plan is None and not self.open_error:
+                message += "\n\nFix the plan file in an editor, then press f5 to reload it here."
+            else:
+                message += "\n\nu undoes the last edit."
             for key in ("budget", "cold", "cooler", "notes"):
                 self.query_one(f"#{key}", ResultsPanel).show([], marked, plain, message)
             self.query_one("#room-figures", ResultsPanel).show([], marked, plain, message)
@@ -309,18 +321,9 @@ class CryoplanApp(App):
             self.query_one("#plan-steps", Figures).show([], "plan", marked, plain)
             self.query_one("#summary", Static).update("")
             return
-        for key in ("budget", "cold", "cooler", "notes"):
-            present = panel_map.present(data, key, split[key])
-            self.query_one(f"#{key}", ResultsPanel).show(
-                split[key] if present else [], marked, plain, panel_map.ABSENT[key]
-            )
-        room_present = panel_map.present(data, "room", split["room"])
-        self.query_one("#room-figures", ResultsPanel).show(
-            split["room"] if room_present else [], marked, plain, panel_map.ABSENT["room"]
-        )
-        cautions = self.query_one("#room-cautions", Static)
-        cautions.update(self._room_caution() if room_present else "")
-        cautions.display = room_present
+        # only the open panel is drawn now; the others when they are opened
+        self._stale = {"budget", "cold", "cooler", "room", "notes"}
+        self._paint_panel(panel_map.PANELS[self.panel][0])
         self.query_one("#plan-steps", Figures).show(
             self._step_blocks(split), "plan", marked, plain
         )
@@ -328,6 +331,27 @@ class CryoplanApp(App):
         self.query_one("#plan-chart", ChartView).set_chart(chart, plain)
         self._fit_plan_chart()
         self.query_one("#summary", Static).update(self._summary_text(data))
+
+    def _paint_panel(self, key: str) -> None:
+        """Draw one results panel from the last evaluation, if it is out of date."""
+        if key not in self._stale or self.data is None:
+            return
+        self._stale.discard(key)
+        data, split = self.data, panel_map.by_panel(self.blocks or [])
+        plain, marked = self.plain, self._highlight
+        present = panel_map.present(data, key, split[key])
+        blocks = split[key] if present else []
+        if key == "room":
+            self.query_one("#room-figures", ResultsPanel).show(
+                blocks, marked, plain, panel_map.ABSENT["room"]
+            )
+            cautions = self.query_one("#room-cautions", Static)
+            cautions.update(self._room_caution() if present else "")
+            cautions.display = present
+        else:
+            self.query_one(f"#{key}", ResultsPanel).show(
+                blocks, marked, plain, panel_map.ABSENT[key]
+            )
 
     #: Terminal height from which the cold-mass panel also shows the liquid chart.
     PLAN_CHART_HEIGHT = 34
@@ -429,10 +453,10 @@ class CryoplanApp(App):
         line = f"cryoplan  {name}" + (f"  [{', '.join(flags)}]" if flags else "")
         if title:
             line += f"  {title}"
-        self.query_one("#title", Static).update(line)
+        self.query_one("#title", Static).update(line, layout=False)
 
     def _status(self, text: str) -> None:
-        self.query_one("#status", Static).update(text)
+        self.query_one("#status", Static).update(text, layout=False)
 
     # --- the cold-mass editor -------------------------------------------------------
 
@@ -461,7 +485,11 @@ class CryoplanApp(App):
             self._status(self.open_error or "No plan is open.")
             return
         if self._plan is None and self.data is None:
-            self._status("Still evaluating the plan; edit in a moment.")
+            self._status(
+                "The plan has problems (see the panels): fix the file, then f5."
+                if self.loaded
+                else "Still evaluating the plan; edit in a moment."
+            )
             return
         action, row, column = message.action, message.row, message.column
         if action == "add_stage":
@@ -670,6 +698,7 @@ class CryoplanApp(App):
     def action_panel(self, index: int) -> None:
         self.panel = index
         key = panel_map.PANELS[index][0]
+        self._paint_panel(key)
         self.query_one(ContentSwitcher).current = key
         self.query_one(PanelBar).set_active(index)
         target = {"plan": "#coldmass", "room": "#room-figures"}.get(key, f"#{key}")

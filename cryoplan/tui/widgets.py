@@ -278,18 +278,25 @@ class ColdMassTable(DataTable):
             self.add_column(label, key=key, width=width)
 
     def fill(self, stages, totals: dict[str, str], default_start: str) -> None:
-        """Show ``stages`` (:class:`~cryoplan.tui.editing.StageRow`), keeping the cursor."""
-        row, col = self.cursor_coordinate
-        self.clear()
+        """Show ``stages`` (:class:`~cryoplan.tui.editing.StageRow`), keeping the cursor.
+
+        When the rows are the same as before (an edited value), only the cells that
+        changed are redrawn; when rows came or went, the table is rebuilt.
+        """
+        rows = []
         for st in stages:
             mass = totals.get(st.name, "")
-            self.add_row(
-                Text(st.name, style="bold"),
-                st.temperature,
-                "",
-                Text(mass, style="dim"),
-                "",
-                key=f"s{st.index}",
+            rows.append(
+                (
+                    f"s{st.index}",
+                    [
+                        Text(st.name, style="bold"),
+                        Text(st.temperature),
+                        Text(""),
+                        Text(mass, style="dim"),
+                        Text(""),
+                    ],
+                )
             )
             for p in st.parts:
                 if p.how == "mass":
@@ -297,9 +304,26 @@ class ColdMassTable(DataTable):
                 else:
                     mass_text = Text(f"({p.how})", style="dim")
                 start = Text(p.start) if p.start else Text(f"({default_start})", style="dim")
-                self.add_row(
-                    "  " + p.name, "", p.material, mass_text, start, key=f"p{st.index}.{p.index}"
+                rows.append(
+                    (
+                        f"p{st.index}.{p.index}",
+                        [Text("  " + p.name), Text(""), Text(p.material), mass_text, start],
+                    )
                 )
+        shown = getattr(self, "_shown", None)
+        if shown is not None and [k for k, _ in shown] == [k for k, _ in rows]:
+            columns = [key for key, _, _ in self.COLUMNS]
+            for (key, cells), (_, before) in zip(rows, shown):
+                for column, new, old in zip(columns, cells, before):
+                    if (new.plain, str(new.style)) != (old.plain, str(old.style)):
+                        self.update_cell(key, column, new)
+            self._shown = rows
+            return
+        row, col = self.cursor_coordinate
+        self.clear()
+        for key, cells in rows:
+            self.add_row(*cells, key=key)
+        self._shown = rows
         if self.row_count:
             self.move_cursor(row=min(row, self.row_count - 1), column=col, animate=False)
 
@@ -510,33 +534,38 @@ class MaterialPicker(ModalScreen[str | None]):
 
 
 HELP_TEXT = """\
-Keys of the cryoplan dashboard (keyboard alone is enough)
+Keys of the cryoplan dashboard; the keyboard alone is enough.
 
-  1 .. 6         open a panel: cold mass, budget, once cold, refrigeration,
-                 room, notes            [ and ] : previous / next panel
-  tab            move between the table, the figures and the edit field
-  arrows, pgup   move the cursor; scroll a panel
+  1 .. 6        open a panel: cold mass, budget, once cold,
+                refrigeration, room, notes
+  [ and ]       previous / next panel
+  tab           move between the table, the figures and the edit field
+  arrows, pgup  move the cursor; scroll a panel
 
 Cold mass (panel 1)
-  enter          edit the cell: a name, a temperature, a mass or a start,
-                 with units ("22 kg", "300 g", "4.2 K"); empty start: the
-                 cooldown's start.  A bad entry is marked with the reason and
-                 the last good value stays in force.  escape: cancel
-  m              pick a material (type to find it)
-  a              add a part to the stage under the cursor
-  n              add a stage          x / delete : remove the row's part or stage
+  enter         edit the cell: a name, a temperature, a mass or a start,
+                with units ("22 kg", "300 g", "4.2 K", "20 degC"); an
+                empty start means the cooldown's start. A bad entry is
+                marked with the reason and the last good value stays in
+                force. escape cancels.
+  m             pick a material (type to find it)
+  a             add a part to the stage under the cursor
+  n             add a stage
+  x, delete     remove the part or stage under the cursor
 
 Everywhere
-  u / ctrl+z     undo            r / ctrl+y   redo
-  ctrl+s         save (the previous file is kept as PLAN.bak)
-  p              print: write the printed budget to a file, then send it to
-                 the printer (lp or lpr) after a confirmation
-  f5             reload the plan from disk
-  ?  / f1        this help       q            quit (asks when edits are unsaved)
+  u, ctrl+z     undo                 r, ctrl+y     redo
+  ctrl+s        save (the previous file is kept as PLAN.bak)
+  p             print: write the printed budget to a file, then send it
+                to the printer (lp or lpr) after a confirmation
+  f5            reload the plan from disk
+  ?, f1         this help            q             quit (asks first
+                                                   when edits are unsaved)
 
 Figures that changed with the last edit are shown reversed for a moment.
-Every edit re-evaluates the plan in the background; the screen never waits.
-Plain characters: --plain or CRYOPLAN_PLAIN=1; no colour: NO_COLOR=1.
+Every edit re-evaluates the plan in the background; the screen never
+waits for it. Plain characters: --plain or CRYOPLAN_PLAIN=1; no colour:
+NO_COLOR=1.
 """
 
 
