@@ -232,16 +232,21 @@ def draw_chart(
     return ChartLines([line.ljust(width)[:width] for line in lines], owners, legend)
 
 
-def legend_text(legend: list[tuple[str, str]], plain: bool) -> str:
-    """One line naming the series: their mark (plain) or number (braille) and name.
+def wrap_legend(legend: list[tuple[str, str]], plain: bool, width: int) -> list[str]:
+    """The legend in lines of at most ``width`` characters, breaking between series.
 
-    >>> legend_text([("*", "shield"), ("o", "4K plate")], True)
-    '* shield   o 4K plate'
-    >>> legend_text([("*", "shield"), ("o", "4K plate")], False)
-    '1 shield   2 4K plate'
+    >>> wrap_legend([("*", "a" * 10), ("o", "b" * 10)], True, 16)
+    ['* aaaaaaaaaa', 'o bbbbbbbbbb']
     """
-    if plain:
-        return "   ".join(f"{mark} {name}" for mark, name in legend)
-    if len(legend) == 1:
-        return legend[0][1]
-    return "   ".join(f"{k + 1} {name}" for k, (_, name) in enumerate(legend))
+    if not legend:
+        return []
+    if len(legend) == 1 and not plain:
+        return [legend[0][1][:width]]
+    entries = [f"{mark if plain else k + 1} {name}" for k, (mark, name) in enumerate(legend)]
+    lines = [entries[0][:width]]
+    for entry in entries[1:]:
+        if len(lines[-1]) + 3 + len(entry) <= width:
+            lines[-1] += "   " + entry
+        else:
+            lines.append(entry[:width])
+    return lines

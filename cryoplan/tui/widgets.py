@@ -24,7 +24,7 @@ from textual.widgets import DataTable, Input, Label, OptionList, Static
 from textual.widgets.option_list import Option
 
 from ..report.document import Paragraph
-from .charts import draw_chart, legend_text
+from .charts import draw_chart, wrap_legend
 from .panels import PANELS
 
 #: A table header rule drawn with plain characters.
@@ -143,21 +143,32 @@ class ChartView(Widget):
 
     def set_chart(self, chart, plain: bool) -> None:
         self.chart, self.plain = chart, plain
+        # room for a longer legend where a chart has many curves (about two a line)
+        series = len(chart.series) if chart is not None else 0
+        if "chart" in self.classes:
+            self.styles.height = 14 + max(0, (series - 1) // 2)
         self.refresh()
 
     def chart_text(self, width: int, height: int) -> Text:
         c = self.chart
         if c is None:
             return Text("")
-        drawn = draw_chart(
-            c.series,
-            width,
-            max(height - 2, 5),
-            plain=self.plain,
-            x_label=c.x_label,
-            y_label=c.y_label,
-            log_x=getattr(c, "log_x", False),
-        )
+
+        def draw(rows: int):
+            return draw_chart(
+                c.series,
+                width,
+                max(rows, 5),
+                plain=self.plain,
+                x_label=c.x_label,
+                y_label=c.y_label,
+                log_x=getattr(c, "log_x", False),
+            )
+
+        drawn = draw(height - 2)
+        legend = wrap_legend(drawn.legend, self.plain, width)
+        if len(legend) > 1:
+            drawn = draw(height - 1 - len(legend))
         out = Text(c.title[:width], style="bold")
         for line, owners in zip(drawn.lines, drawn.owners):
             out.append("\n")
@@ -167,9 +178,9 @@ class ChartView(Widget):
                     if k >= 0:
                         row.stylize(SERIES_COLOURS[k % len(SERIES_COLOURS)], col, col + 1)
             out.append_text(row)
-        out.append("\n")
-        legend = legend_text(drawn.legend, self.plain)
-        out.append(Text(legend[:width]))
+        for line in legend:
+            out.append("\n")
+            out.append(Text(line))
         return out
 
     def render(self):
