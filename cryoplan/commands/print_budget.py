@@ -59,6 +59,10 @@ def write_atomic(path: str, payload: bytes) -> None:
     try:
         with os.fdopen(fd, "wb") as fh:
             fh.write(payload)
+        # mkstemp makes the file private; give it the usual permissions of a new file
+        umask = os.umask(0)
+        os.umask(umask)
+        os.chmod(tmp, 0o666 & ~umask)
         os.replace(tmp, path)
     except OSError as exc:
         try:
@@ -81,6 +85,15 @@ def run(args) -> int:
             expected="60 columns or more",
             found=str(args.width),
         )
+    if args.output and args.format != "csv":
+        folder = os.path.dirname(os.path.abspath(args.output))
+        if not os.path.isdir(folder) or os.path.isdir(args.output):
+            raise InputError(
+                "cannot write the output",
+                file=args.output,
+                expected="a file in an existing folder",
+                found="a folder" if os.path.isdir(args.output) else "no such folder",
+            )
     results = evaluate(load_plan(path))
     data = results.to_dict()
     if args.curve:
