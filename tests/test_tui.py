@@ -282,6 +282,41 @@ def test_add_and_remove_a_part_with_the_material_picker(plan_file):
     run(go())
 
 
+def test_edit_a_precool_step_and_a_dewar_size(plan_file):
+    async def go():
+        app = CryoplanApp(plan_file)
+        async with app.run_test(size=(80, 24)) as pilot:
+            await settled(app, pilot)
+            await pilot.press("2")
+            await pilot.pause()
+            table = app.query_one("#settings")
+            assert app.focused is table
+            before = step_litres(app)
+
+            async def set_row(key, value):
+                table.move_cursor(row=table.get_row_index(key), animate=False)
+                await pilot.press("enter")
+                await pilot.pause()
+                app.query_one("#edit-input").value = value
+                await pilot.press("enter")
+                await settled(app, pilot)
+
+            await set_row("cooldown.steps[0].gas_use", "0.6")
+            after = step_litres(app)
+            step1 = next(k for k in before if k[2] == "1")
+            # more of the cold gas's enthalpy used, less liquid boiled: the denominator
+            # L + f [h_v(T) - h_v(T_b)] grows with f (DESIGN.md; Ekin 2006, section 1.5)
+            assert float(after[step1]) < float(before[step1])
+            assert "gas_use = 0.6" in app.document.text
+            helium = next(r.key for r in app.document.settings() if r.label == "helium dewars")
+            await set_row(helium, "500 L")
+            # one 500 L dewar is the only size left: the order is that dewar
+            assert app.data["summary"]["order_L"]["helium"] == pytest.approx(500.0)
+            assert app.focused is table
+
+    run(go())
+
+
 # --- saving and quitting --------------------------------------------------------------
 
 

@@ -17,6 +17,8 @@ import os
 import shutil
 import subprocess
 import time
+from collections.abc import Callable
+from dataclasses import dataclass
 from typing import Any
 
 from rich.text import Text
@@ -43,6 +45,7 @@ from .widgets import (
     PromptScreen,
     QuitScreen,
     ResultsPanel,
+    SettingsTable,
     block_cells,
     use_plain_scrollbars,
 )
@@ -54,6 +57,17 @@ MARK_SECONDS = 1.5
 OXYGEN_DEFERRAL = (
     "planning aid only: local codes, the site's safety office and licensed practice decide"
 )
+
+
+@dataclass
+class Editing:
+    """The field in the edit bar: its kind (for the check while typing), how to apply a
+    value to the document, and where the focus goes back to."""
+
+    kind: str
+    apply: Callable[[PlanDocument, str], Any]
+    what: str
+    back_to: str  # a selector
 
 
 class Evaluated(Message):
@@ -124,7 +138,7 @@ class CryoplanApp(App):
         self.evaluating = False
         self.pending = False
         self.panel = 0
-        self.editing: tuple | None = None  # the field in the edit bar
+        self.editing: Editing | None = None  # the field in the edit bar
         self._plan = None  # the plan validated with the last accepted edit
         self._cells: dict = {}
         self._highlight: set = set()
@@ -153,14 +167,16 @@ class CryoplanApp(App):
                 yield ColdMassTable(id="coldmass")
                 yield Figures(id="plan-steps")
                 yield ChartView(id="plan-chart")
-                yield EditBar(id="editbar")
-            yield ResultsPanel("budget", id="budget")
+            with Vertical(id="budget"):
+                yield SettingsTable(id="settings")
+                yield ResultsPanel("budget", id="budget-figures")
             yield ResultsPanel("cold", id="cold")
             yield ResultsPanel("cooler", id="cooler")
             with Vertical(id="room"):
                 yield ResultsPanel("room", id="room-figures")
                 yield Static("", id="room-cautions", markup=False)
             yield ResultsPanel("notes", id="notes")
+        yield EditBar(id="editbar")
         yield Static("", id="status", markup=False)
         yield Footer(show_command_palette=False, compact=True)
 
@@ -177,6 +193,7 @@ class CryoplanApp(App):
         except CryoplanError as exc:
             self.open_error = str(exc)
         self._fill_cold_mass()
+        self._fill_settings()
         self._show_title()
         self._status(
             "Reading the plan and evaluating ..." if self.document else self.open_error or ""
@@ -314,7 +331,7 @@ class CryoplanApp(App):
                 message += "\n\nFix the plan file in an editor, then press f5 to reload it here."
             else:
                 message += "\n\nu undoes the last edit."
-            for key in ("budget", "cold", "cooler", "notes"):
+            for key in ("budget-figures", "cold", "cooler", "notes"):
                 self.query_one(f"#{key}", ResultsPanel).show([], marked, plain, message)
             self.query_one("#room-figures", ResultsPanel).show([], marked, plain, message)
             self.query_one("#room-cautions", Static).update("")
@@ -349,17 +366,19 @@ class CryoplanApp(App):
             cautions.update(self._room_caution() if present else "")
             cautions.display = present
         else:
-            self.query_one(f"#{key}", ResultsPanel).show(
-                blocks, marked, plain, panel_map.ABSENT[key]
-            )
+            target = "#budget-figures" if key == "budget" else f"#{key}"
+            self.query_one(target, ResultsPanel).show(blocks, marked, plain, panel_map.ABSENT[key])
 
     #: Terminal height from which the cold-mass panel also shows the liquid chart.
     PLAN_CHART_HEIGHT = 34
 
     def _fit_plan_chart(self, height: int | None = None) -> None:
+        """Use a tall terminal: the liquid chart under the cold mass, every plan setting."""
         chart = self.query_one("#plan-chart", ChartView)
         height = self.size.height if height is None else height
-        chart.display = chart.chart is not None and height >= self.PLAN_CHART_HEIGHT
+        tall = height >= self.PLAN_CHART_HEIGHT
+        chart.display = chart.chart is not None and tall
+        self.query_one(SettingsTable).styles.max_height = 16 if tall else 6
 
     def on_resize(self, event: events.Resize) -> None:
         self._fit_plan_chart(event.size.height)
@@ -547,6 +566,10 @@ class CryoplanApp(App):
             value = st.name if column == "name" else st.temperature
             what = f"{'Name' if column == 'name' else 'Temperature'} of stage {st.name}:"
             field_kind = "name" if column == "name" else "temperature"
+
+            def apply(d, text):
+                return d.set_stage_field(i, column, text)
+
         else:
             if column not in ("name", "mass", "start"):
                 self._status("For a part, edit its name, material, mass or start.")
@@ -559,10 +582,17 @@ class CryoplanApp(App):
                 "start": f"Start of {p.name} (empty: cooldown start):",
             }[column]
             field_kind = column
-        self.editing = (kind, i, j, column, field_kind)
+
+            def apply(d, text):
+                return d.set_part_field(i, j, column, text)
+
+        self._start_editing(Editing(field_kind, apply, column, "#coldmass"), what, value)
+
+    def _start_editing(self, editing: Editing, label: str, value: str) -> None:
+        self.editing = editing
         bar = self.query_one(EditBar)
         bar.display = True
-        bar.query_one("#edit-label", Label).update(what)
+        bar.query_one("#edit-label", Label).update(label)
         entry = bar.query_one("#edit-input", Input)
         entry.value = value
         entry.remove_class("-invalid")
@@ -572,10 +602,35 @@ class CryoplanApp(App):
         entry.focus()
 
     def _close_edit_bar(self) -> None:
+        back_to = self.editing.back_to if self.editing else "#coldmass"
         self.editing = None
         bar = self.query_one(EditBar)
         bar.display = False
-        self.query_one(ColdMassTable).focus()
+        self.query_one(back_to).focus()
+
+    @on(SettingsTable.EditRequested)
+    def _setting_requested(self, message: SettingsTable.EditRequested) -> None:
+        if self.document is None or (self._plan is None and self.data is None):
+            self._status("The plan is not ready for editing (see the panels).")
+            return
+        row = next((r for r in self.document.settings() if r.key == message.key), None)
+        if row is None:
+            return
+
+        def apply(d, text, key=row.key):
+            now = next(r for r in d.settings() if r.key == key)
+            return d.set_setting(now, text)
+
+        hint = {"volumes": " (sizes, comma-separated)", "fraction": " (0 to 1, or %)"}
+        self._start_editing(
+            Editing(row.kind, apply, row.label, "#settings"),
+            f"{row.label.capitalize()}{hint.get(row.kind, '')}:",
+            row.value,
+        )
+
+    def _fill_settings(self) -> None:
+        if self.document is not None:
+            self.query_one(SettingsTable).fill(self.document.settings())
 
     @on(EditBar.Cancelled)
     def _edit_cancelled(self) -> None:
@@ -587,7 +642,7 @@ class CryoplanApp(App):
         """Mark a bad entry at once, while it is typed."""
         if self.editing is None:
             return
-        field_kind = self.editing[4]
+        field_kind = self.editing.kind
         reason = self.query_one("#edit-reason", Static)
         try:
             check_value(field_kind, event.value)
@@ -602,15 +657,13 @@ class CryoplanApp(App):
     def _edit_submitted(self, event: Input.Submitted) -> None:
         if self.editing is None:
             return
-        kind, i, j, column, _ = self.editing
-        value = event.value
+        editing, value = self.editing, event.value
 
         def change(d):
-            if kind == "stage":
-                return d.set_stage_field(i, column, value)
-            return d.set_part_field(i, j, column, value)
+            return editing.apply(d, value)
 
-        if self._apply(change, f"{column.capitalize()} set to {value.strip() or 'the default'}."):
+        done = f"{editing.what.capitalize()} set to {value.strip() or 'the default'}."
+        if self._apply(change, done):
             self._close_edit_bar()
         else:
             event.input.add_class("-invalid")
@@ -636,6 +689,7 @@ class CryoplanApp(App):
         self.generation += 1
         self._edit_started = time.perf_counter() if started is None else started
         self._fill_cold_mass()
+        self._fill_settings()
         self._show_title()
         self._status(done)
         self._evaluate()
@@ -677,6 +731,7 @@ class CryoplanApp(App):
             self._plan = None
             self.generation += 1
             self._fill_cold_mass()
+            self._fill_settings()
             self._show_title()
             self._status("Reloaded from disk.")
             self._evaluate()
@@ -701,7 +756,9 @@ class CryoplanApp(App):
         self._paint_panel(key)
         self.query_one(ContentSwitcher).current = key
         self.query_one(PanelBar).set_active(index)
-        target = {"plan": "#coldmass", "room": "#room-figures"}.get(key, f"#{key}")
+        target = {"plan": "#coldmass", "room": "#room-figures", "budget": "#settings"}.get(
+            key, f"#{key}"
+        )
         self.query_one(target).focus()
 
     def action_step_panel(self, step: int) -> None:

@@ -85,9 +85,44 @@ def check_value(kind: str, text: str) -> str:
         elif kind in ("temperature", "start"):
             if units.parse_temperature(value) <= 0:
                 raise EditRejected("a temperature must be above 0 K")
+        elif kind == "volume":
+            if units.parse_quantity(value, "volume") <= 0:
+                raise EditRejected(
+                    "a volume must be above zero; expected a volume such as '100 L'"
+                )
+        elif kind == "volumes":
+            sizes = [v.strip() for v in value.split(",") if v.strip()]
+            if not sizes:
+                raise EditRejected("no sizes; expected sizes such as '100 L, 250 L'")
+            for v in sizes:
+                if units.parse_quantity(v, "volume") <= 0:
+                    raise EditRejected(f"a size that is not above zero: {v!r}")
+            return ", ".join(sizes)
+        elif kind == "refill":
+            if value.endswith("%"):
+                units.parse_fraction(value)
+            elif units.parse_quantity(value, "volume") < 0:
+                raise EditRejected(
+                    "a negative volume; expected a volume such as '20 L' or a share such as '25 %'"
+                )
+        elif kind == "fraction":
+            units.parse_fraction(_number(value))
+        elif kind == "price":
+            units.parse_price(value)
     except InputError as exc:
         raise EditRejected(reason_of(exc)) from None
     return value
+
+
+def _number(text: str):
+    """'0.4' -> 0.4 and '40 %' stays a percentage string; anything else is left as is."""
+    text = text.strip()
+    if text.endswith("%"):
+        return text
+    try:
+        return float(text)
+    except ValueError:
+        return text
 
 
 @dataclass
@@ -112,6 +147,24 @@ class StageRow:
     name: str
     temperature: str
     parts: list[PartRow] = field(default_factory=list)
+
+
+@dataclass
+class SettingRow:
+    """One setting of the plan outside the cold mass: a cooldown step, a bath, a supply."""
+
+    key: str  # dotted key, as in the plan's messages: "cooldown.steps[0].to"
+    path: tuple  # the way into the document: ("cooldown", "steps", 0, "to")
+    label: str
+    value: str  # as written (numbers as text, lists joined with ", ")
+    kind: str  # a kind of check_value
+
+
+def _written(value: Any) -> str:
+    value = _plain(value)
+    if isinstance(value, list):
+        return ", ".join(str(v) for v in value)
+    return "" if value is None else str(value)
 
 
 def _plain(value: Any) -> Any:
@@ -231,6 +284,113 @@ class PlanDocument:
     def cooldown_start(self) -> str:
         cooldown = self.doc.get("cooldown") or {}
         return str(_plain(cooldown.get("start", self.doc.get("ambient", "293.15 K"))))
+
+    def settings(self) -> list[SettingRow]:
+        """The cooldown, bath and supply settings the dashboard edits, as written."""
+        rows: list[SettingRow] = []
+        cooldown = self.doc.get("cooldown") or {}
+        rows.append(
+            SettingRow(
+                "cooldown.start",
+                ("cooldown", "start"),
+                "cooldown start",
+                self.cooldown_start(),
+                "temperature",
+            )
+        )
+        steps = cooldown.get("steps") if isinstance(cooldown, dict) else None
+        for i, step in enumerate(steps if isinstance(steps, list) else []):
+            cry = _written(step.get("cryogen", "?"))
+            if "to" in step:
+                rows.append(
+                    SettingRow(
+                        f"cooldown.steps[{i}].to",
+                        ("cooldown", "steps", i, "to"),
+                        f"step {i + 1} ({cry}): to",
+                        _written(step["to"]),
+                        "temperature",
+                    )
+                )
+            rows.append(
+                SettingRow(
+                    f"cooldown.steps[{i}].gas_use",
+                    ("cooldown", "steps", i, "gas_use"),
+                    f"step {i + 1} ({cry}): gas_use",
+                    _written(step.get("gas_use", 0)),
+                    "fraction",
+                )
+            )
+        for i, bath in enumerate(self._array("bath")):
+            name = _written(bath.get("name", bath.get("cryogen", f"bath {i + 1}")))
+            if "volume" in bath:
+                rows.append(
+                    SettingRow(
+                        f"bath[{i}].volume",
+                        ("bath", i, "volume"),
+                        f"bath {name}: volume",
+                        _written(bath["volume"]),
+                        "volume",
+                    )
+                )
+            if "refill_at" in bath:
+                rows.append(
+                    SettingRow(
+                        f"bath[{i}].refill_at",
+                        ("bath", i, "refill_at"),
+                        f"bath {name}: refill at",
+                        _written(bath["refill_at"]),
+                        "refill",
+                    )
+                )
+        for i, supply in enumerate(self._array("supply")):
+            cry = _written(supply.get("cryogen", f"supply {i + 1}"))
+            if "dewars" in supply:
+                rows.append(
+                    SettingRow(
+                        f"supply[{i}].dewars",
+                        ("supply", i, "dewars"),
+                        f"{cry} dewars",
+                        _written(supply["dewars"]),
+                        "volumes",
+                    )
+                )
+            if "price" in supply:
+                rows.append(
+                    SettingRow(
+                        f"supply[{i}].price",
+                        ("supply", i, "price"),
+                        f"{cry} price",
+                        _written(supply["price"]),
+                        "price",
+                    )
+                )
+        return rows
+
+    def set_setting(self, row: SettingRow, text: str):
+        """Set one of :meth:`settings` (the same key and kind)."""
+        value = check_value(row.kind, text)
+
+        def mutate(doc):
+            node = doc
+            for step in row.path[:-1]:
+                if isinstance(step, str) and step not in node:
+                    node[step] = tomlkit.table()  # [cooldown] for its start
+                node = node[step]
+            last = row.path[-1]
+            if row.kind == "fraction":
+                number = _number(value)
+                node[last] = number if isinstance(number, float) else value
+            elif row.kind == "volumes":
+                node[last] = [v.strip() for v in value.split(",")]
+            else:
+                node[last] = value
+
+        return self._change(mutate)
+
+    def _array(self, name: str) -> list:
+        """An array of tables ([[bath]], [[supply]]); nothing for anything else."""
+        value = self.doc.get(name)
+        return value if isinstance(value, list) else []
 
     def _stage_list(self):
         stages = self.doc.get("stage")

@@ -365,6 +365,44 @@ class ColdMassTable(DataTable):
         self._ask("remove")
 
 
+class SettingsTable(DataTable):
+    """The cooldown steps, baths and supplies as written; enter edits the value."""
+
+    BINDINGS = [Binding("enter", "edit", "Edit", key_display="enter")]
+
+    class EditRequested(Message):
+        def __init__(self, key: str) -> None:
+            super().__init__()
+            self.key = key
+
+    def on_mount(self) -> None:
+        self.cursor_type = "row"
+        self.add_column("Plan setting", key="label", width=34)
+        self.add_column("Value", key="value", width=26)
+
+    def fill(self, rows) -> None:
+        """Show ``rows`` (:class:`~cryoplan.tui.editing.SettingRow`), keeping the cursor."""
+        shown = getattr(self, "_shown", None)
+        keys = [r.key for r in rows]
+        if shown is not None and [r.key for r in shown] == keys:
+            for new, old in zip(rows, shown):
+                if new.value != old.value:
+                    self.update_cell(new.key, "value", new.value)
+        else:
+            row = self.cursor_row
+            self.clear()
+            for r in rows:
+                self.add_row(r.label, r.value, key=r.key)
+            if self.row_count:
+                self.move_cursor(row=min(row, self.row_count - 1), animate=False)
+        self._shown = rows
+
+    def action_edit(self) -> None:
+        if self.row_count:
+            key = self.coordinate_to_cell_key(self.cursor_coordinate).row_key.value
+            self.post_message(self.EditRequested(str(key)))
+
+
 class EditBar(Vertical):
     """The field being edited: what it is, the entry, and the reason a bad entry is refused."""
 
@@ -563,6 +601,11 @@ Cold mass (panel 1)
   a             add a part to the stage under the cursor
   n             add a stage
   x, delete     remove the part or stage under the cursor
+
+Budget (panel 2)
+  enter         edit a plan setting: a step's end temperature or gas_use,
+                a bath's volume or refill level, dewar sizes ("100 L,
+                250 L"), a price ("18 USD/L")
 
 Everywhere
   u, ctrl+z     undo                 r, ctrl+y     redo
