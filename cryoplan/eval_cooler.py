@@ -217,12 +217,14 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
         return out
 
     stages_out = []
+    has_capacity = any(c is not None for c in curves) or cmap is not None
     steady = None
     notes = []
     try:
-        steady = rf.steady_state(
-            capacity_fn, load_fn, links, targets=targets, ambient=plan.ambient, names=names
-        )
+        if any(c is not None for c in curves) or cmap is not None:
+            steady = rf.steady_state(
+                capacity_fn, load_fn, links, targets=targets, ambient=plan.ambient, names=names
+            )
     except InputError as exc:
         exc.file = plan.path
         exc.key = exc.key or "cooler"
@@ -245,7 +247,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
                 "carnot_W_per_W": float(carnot_w_per_w[k]),
                 "carnot_W": float(carnot_w[k]),
                 "steady_K": float(steady.temperatures[k]) if steady is not None else None,
-                "flag": flag or ("" if cooled else "not on the cooler"),
+                "flag": flag or ("" if cooled or not has_capacity else "not on the cooler"),
             }
         )
     carnot_total = float(carnot_w.sum())
@@ -264,6 +266,14 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
             # the trend is stated for refrigeration capacity at the cold end
             result["survey_percent"] = float(rf.survey_percent_carnot(max(cap, 0.1)))
             result["survey_source"] = "Strobridge 1974, trend from memory"
+    elif load_at_target.any():
+        # no cooler capacities given: the trend at the coldest loaded stage's load
+        loaded = [k for k in range(len(names)) if load_at_target[k] > 0]
+        coldest = min(loaded, key=lambda k: targets[k])
+        result["survey_percent"] = float(
+            rf.survey_percent_carnot(min(max(load_at_target[coldest], 0.1), 1e5))
+        )
+        result["survey_source"] = "Strobridge 1974, trend from memory"
     if cooler.input_power:
         # the cooler's own rating: its capacity at the targets against its input
         lifted = float(

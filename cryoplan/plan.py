@@ -1206,11 +1206,12 @@ def _cooler(reader: _Reader, raw, stages: list[Stage]) -> Cooler | None:
     cmap = None
     if "map" in raw:
         cmap = _cooler_map(reader, raw["map"], names)
-    if not cstages and cmap is None and not reader.errors:
+    if not cstages and cmap is None and pc is None and not reader.errors:
         reader.error(
             "the cooler has no stage",
             "cooler.stage",
-            expected="at least one [[cooler.stage]] or a [cooler.map]",
+            expected="at least one [[cooler.stage]] or a [cooler.map] (or percent_carnot alone "
+            "for the work of the static loads)",
             found="none",
         )
     if power is None and pc is None:

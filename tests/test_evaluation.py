@@ -415,3 +415,25 @@ def test_bad_cooler_maps_and_missing_input_power(old, new, key):
         parse_plan(MAP.replace(old, new, 1), "plan.toml")
     errs = info.value.errors if isinstance(info.value, InputErrors) else [info.value]
     assert any(e.key == key for e in errs), [str(e) for e in errs]
+
+
+def test_percent_of_carnot_alone_gives_the_real_input_of_the_static_loads():
+    # real input = Carnot input / fraction, with Carnot = (T0/T - 1) W per W (exact)
+    text = textwrap.dedent(
+        """\
+        ambient = "300 K"
+        [[stage]]
+        name = "plate"
+        temperature = "4.2 K"
+        parts = [ { name = "plate", material = "copper", mass = "10 kg" } ]
+        [cooler]
+        percent_carnot = 1.5
+        [[load]]
+        stage = "plate"
+        kind = "fixed"
+        power = "1 W"
+        """
+    )
+    r = evaluate_text(text)["refrigeration"]
+    assert r["real_input_W"] == pytest.approx((300 / 4.2 - 1) / 0.015)
+    assert r["survey_percent"] > 0  # guidance from the published trend is shown
