@@ -347,7 +347,11 @@ class CryoplanApp(App):
         chart = next((b for b in split["budget"] if type(b).__name__ == "Chart"), None)
         self.query_one("#plan-chart", ChartView).set_chart(chart, plain)
         self._fit_plan_chart()
-        self.query_one("#summary", Static).update(self._summary_text(data))
+        summary = self._summary_text(data)
+        shape = [len(line) for line in summary.plain.split("\n")]
+        same = shape == getattr(self, "_summary_shape", None)
+        self._summary_shape = shape
+        self.query_one("#summary", Static).update(summary, layout=not same)
 
     def _paint_panel(self, key: str) -> None:
         """Draw one results panel from the last evaluation, if it is out of date."""

@@ -62,6 +62,28 @@ def block_cells(blocks, prefix: str) -> dict[tuple, str]:
     return cells
 
 
+def shape_of(blocks) -> tuple:
+    """The lengths of every text of ``blocks``: equal shapes lay out on equal lines."""
+    out = []
+    for b in blocks:
+        kind = _kind(b)
+        if kind == "Table":
+            out.append(
+                (
+                    b.title,
+                    tuple(b.headers),
+                    tuple(tuple(len(str(c)) for c in row) for row in b.rows),
+                )
+            )
+        elif kind == "Bullets":
+            out.append(tuple(len(item) for item in b.items))
+        elif kind in ("Paragraph", "Heading"):
+            out.append((kind, len(b.text)))
+        else:
+            out.append(kind)
+    return tuple(out)
+
+
 def render_table(b, prefix: str, highlight: set, plain: bool, n: int = 0) -> RichTable:
     """A report Table block as a Rich table; cells in ``highlight`` stand out."""
     align = b.align or ("l" + "r" * (len(b.headers) - 1))
@@ -128,7 +150,11 @@ class Figures(Static):
 
     def show(self, blocks, prefix: str, highlight: set, plain: bool) -> None:
         self.blocks = blocks
-        self.update(render_blocks(blocks, prefix, highlight, plain))
+        # text of the same lengths takes the same lines: then no new layout is needed
+        shape = (shape_of(blocks), plain)
+        same = shape == getattr(self, "_shape", None)
+        self._shape = shape
+        self.update(render_blocks(blocks, prefix, highlight, plain), layout=not same)
 
 
 class ChartView(Widget):
