@@ -522,6 +522,22 @@ def test_a_renamed_stage_is_renamed_where_the_plan_refers_to_it(plan_file):
         doc.set_stage_field(1, "name", "nitrogen shield")  # taken by the other stage
 
 
+def test_add_and_remove_a_stage_in_the_document(plan_file):
+    doc = PlanDocument.open(plan_file)
+    plan = doc.add_stage()
+    assert [s.name for s in doc.stages()][-1] == "new stage"
+    assert any(s.name == "new stage" and not s.parts for s in plan.stages)
+    doc.add_part(2, "copper")
+    assert doc.stages()[2].parts[0].material == "copper"
+    doc.remove_stage(2)
+    assert doc.text == open(plan_file, encoding="utf-8").read()
+    # the plan's baths and loads name the cold plate: removing it is refused, with the reason
+    with pytest.raises(EditRejected) as info:
+        doc.remove_stage(1)
+    assert "cold plate" in info.value.reason
+    assert not doc.dirty
+
+
 # --- the command ----------------------------------------------------------------------
 
 

@@ -490,9 +490,9 @@ class CryoplanApp(App):
             return
         from ..report.document import sig
 
-        totals = {}
-        for st in (self.data or {}).get("cold_mass", []):
-            totals[st["stage"]] = f"{sig(sum(p['mass_kg'] for p in st['parts']))} kg"
+        totals = {}  # each stage's mass, as the budget gives it
+        for st in (self.data or {}).get("budget", {}).get("stages", []):
+            totals[st["stage"]] = f"{sig(st['mass_kg'])} kg"
         table.fill(self.document.stages(), totals, self.document.cooldown_start())
 
     def _row(self, row_key: str) -> tuple[str, int, int | None]:
