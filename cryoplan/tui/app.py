@@ -386,6 +386,10 @@ class CryoplanApp(App):
 
     def on_resize(self, event: events.Resize) -> None:
         self._fit_plan_chart(event.size.height)
+        if self.data is not None:
+            self.query_one("#summary", Static).update(
+                self._summary_text(self.data, event.size.width)
+            )
 
     @staticmethod
     def _room_caution() -> str:
@@ -447,21 +451,40 @@ class CryoplanApp(App):
             for label, value in items
         }
 
-    def _summary_text(self, data) -> Text:
+    def _summary_text(self, data, width: int | None = None) -> Text:
+        """The summary strip, wrapped by hand so that a figure never parts from its unit
+        or its label: one line or more per cryogen, then the rest."""
+        width = max(20, (self.size.width if width is None else width) - 2)
         out = Text()
+        line = 0  # length of the current line
+
+        def put(piece: Text, gap: str) -> None:
+            nonlocal line
+            if line and line + len(gap) + len(piece) > width:
+                out.append("\n")
+                line = 0
+            elif line:
+                out.append(gap)
+                line += len(gap)
+            out.append_text(piece)
+            line += len(piece)
+
         for n, (group, items) in enumerate(self._summary_items(data)):
             if n:
                 out.append("\n")
-            if group:
-                out.append(f"{group}: ", style="bold")
+                line = 0
             for k, (label, value) in enumerate(items):
-                if k:
-                    out.append("  ")
-                out.append(f"{label} ")
+                piece = Text()
+                if group and k == 0:
+                    piece.append(f"{group}: ", style="bold")
                 style = CHANGED if ("summary", group, label) in self._highlight else "bold"
-                out.append(value, style=style)
+                piece.append(f"{label} ")
+                piece.append(value, style=style)
+                put(piece, "  ")
                 if label == "lowest oxygen":
-                    out.append(f" ({OXYGEN_DEFERRAL})")
+                    words = f"({OXYGEN_DEFERRAL})".split(" ")
+                    for word in words:
+                        put(Text(word), " ")
         return out
 
     def _show_title(self) -> None:
