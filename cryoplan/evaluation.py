@@ -91,8 +91,23 @@ def choose_dewars(needed_L: float, sizes_L: list[float], heel_L: float) -> list[
     return [(s, n) for s, n in zip(sizes, counts) if n]
 
 
-def _cooldown_steps(plan: Plan, case: str) -> tuple[list[dict], dict[str, float], list]:
+def _cached_specific_heat(m, cache: dict):
+    """m.specific_heat, remembered per node set: the three cases share the same nodes."""
+
+    def c(x):
+        key = (m.id, x.size, float(x[0]), float(x[-1]))
+        if key not in cache:
+            cache[key] = m.specific_heat(x)
+        return cache[key]
+
+    return c
+
+
+def _cooldown_steps(
+    plan: Plan, case: str, c_cache: dict | None = None
+) -> tuple[list[dict], dict[str, float], list]:
     """Litres per step for one case, the cumulative curves, and the parts' final temperatures."""
+    c_cache = {} if c_cache is None else c_cache
     from .fluids import cryogen
     from .library import material
 
@@ -128,7 +143,7 @@ def _cooldown_steps(plan: Plan, case: str) -> tuple[list[dict], dict[str, float]
                     continue
                 m = material(p.material)
                 T, cum = cumulative_cryogen_mass(
-                    m.specific_heat,
+                    _cached_specific_heat(m, c_cache),
                     p.mass * factor,
                     t_now,
                     target,
@@ -372,8 +387,9 @@ def evaluate(plan: Plan) -> Results:
     data["budget"] = _budget(plan)
 
     cases = {}
+    c_cache: dict = {}
     for case in CASES:
-        steps, per_cryogen, curves = _cooldown_steps(plan, case)
+        steps, per_cryogen, curves = _cooldown_steps(plan, case, c_cache)
         factor = {"low": 1 - plan.mass_margin, "nominal": 1.0, "high": 1 + plan.mass_margin}[case]
         inserts = _insert_litres(plan, factor)
         cases[case] = {

@@ -143,6 +143,12 @@ def _first_bad(arr: np.ndarray, bad: np.ndarray) -> float:
 
 def _check(value, name: str, unit: str, *, zero: bool = True, inf: bool = False) -> np.ndarray:
     """A non-negative (or, with ``zero=False``, positive) quantity, NaN refused."""
+    if (
+        type(value) is float
+        and (value > 0.0 or (zero and value == 0.0))
+        and (inf or value != math.inf)
+    ):
+        return np.asarray(value)  # the common case, without array reductions
     arr = _array(value, name)
     ok = arr >= 0.0 if zero else arr > 0.0
     if not inf:
@@ -161,6 +167,8 @@ def _check(value, name: str, unit: str, *, zero: bool = True, inf: bool = False)
 
 
 def _check_percent(value, name: str) -> np.ndarray:
+    if type(value) is float and 0.0 <= value <= AIR_OXYGEN_PERCENT:
+        return np.asarray(value)
     arr = _array(value, name)
     bad = ~((arr >= 0.0) & (arr <= AIR_OXYGEN_PERCENT))
     if np.any(bad):
@@ -1584,7 +1592,7 @@ def ventilation_for_release(
     while low(hi) < level:  # rounding at the exact bound only
         hi *= 1.0 + 1e-6
     lo = 0.0
-    while hi - lo > 1e-10 * hi:
+    while hi - lo > 1e-7 * hi:  # a flow to seven figures: far finer than any fan is set
         mid = 0.5 * (lo + hi)
         if low(mid) >= level:
             hi = mid
