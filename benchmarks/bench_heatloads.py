@@ -13,19 +13,12 @@ from __future__ import annotations
 
 import os
 import sys
-import time
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 sys.path.insert(0, os.path.dirname(HERE))
+sys.path.insert(0, HERE)
 
-
-def best(fn, n):
-    times = []
-    for _ in range(n):
-        t = time.perf_counter()
-        fn()
-        times.append(time.perf_counter() - t)
-    return min(times)
+from _timing import best  # noqa: E402
 
 
 def main() -> None:
