@@ -108,12 +108,18 @@ def render_blocks(blocks, width: int = 80) -> list[str]:
     return out
 
 
+def _tail(label: str, path: str, width: int) -> str:
+    """A label and a path, cut from the left to fit (the file name stays whole)."""
+    room = width - len(label)
+    return label + (path if len(path) <= room else "..." + path[-(room - 3) :])
+
+
 def render_text(data: dict, blocks, width: int = 80) -> str:
     p = data["plan"]
     head = [
         "=" * width,
         textwrap.shorten(f"CRYOPLAN BUDGET: {p['title']}", width),
-        textwrap.shorten(f"Plan file: {p['file']}", width),
+        _tail(f"Plan file: ", p["file"], width),
         f"Printed {p['date']} by cryoplan {p['cryoplan_version']}",
         "=" * width,
     ]
