@@ -119,7 +119,7 @@ def render_text(data: dict, blocks, width: int = 80) -> str:
     head = [
         "=" * width,
         textwrap.shorten(f"CRYOPLAN BUDGET: {p['title']}", width),
-        _tail(f"Plan file: ", p["file"], width),
+        _tail("Plan file: ", p["file"], width),
         f"Printed {p['date']} by cryoplan {p['cryoplan_version']}",
         "=" * width,
     ]
