@@ -698,7 +698,14 @@ def _cooldown(reader: _Reader, raw, stages: list[Stage], ambient: float, plan_no
         try:
             tb = _boiling_point(cry, pressure)
         except CryoplanError as exc:
-            reader.errors.append(InputError(str(exc), **reader.where(f"{key}.pressure")))
+            reader.errors.append(
+                InputError(
+                    getattr(exc, "message", str(exc)),
+                    expected=getattr(exc, "expected", None),
+                    found=getattr(exc, "found", None),
+                    **reader.where(f"{key}.pressure"),
+                )
+            )
             continue
         if to < tb - BOILING_POINT_SNAP_K:
             reader.error(
@@ -790,7 +797,14 @@ def _baths(reader: _Reader, raw_list, stages: list[Stage]) -> list[Bath]:
         try:
             tb = _boiling_point(cry, pressure)
         except CryoplanError as exc:
-            reader.errors.append(InputError(str(exc), **reader.where(f"{key}.pressure")))
+            reader.errors.append(
+                InputError(
+                    getattr(exc, "message", str(exc)),
+                    expected=getattr(exc, "expected", None),
+                    found=getattr(exc, "found", None),
+                    **reader.where(f"{key}.pressure"),
+                )
+            )
             continue
         st = names[stage].temperature
         if st < tb - BOILING_POINT_SNAP_K:
@@ -1088,7 +1102,13 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         v["pressure"] = reader.quantity(
             raw, "pressure", key, "pressure", required=True, positive=True
         )
+        from .heatloads import GASES
+
         v["gas"] = raw.get("gas", "helium")
+        if v["gas"] not in GASES:
+            reader.errors.append(
+                UnknownNameError("gas", str(v["gas"]), list(GASES), **reader.where(f"{key}.gas"))
+            )
         v["accommodation"] = reader.fraction(raw, "accommodation", key, None)
     return v if len(reader.errors) == n_errors else None
 
