@@ -164,6 +164,7 @@ def analyse_rooms(plan: Plan, data: dict) -> None:
                     "minimum_room_volume_m3": _finite(a.minimum_room_volume),
                     "sudden_drop_percent": float(a.sudden_drop_percent),
                     "horizon_h": _finite(horizon / 3600.0),
+                    "fans_running": release.ventilation_working > 0,
                     "_a": a,
                 }
             )

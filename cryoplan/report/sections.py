@@ -254,7 +254,9 @@ def rooms_section(data: dict) -> list:
                 f"{c['lowest_percent']:.1f}",
                 _h(c["time_to_alarm_s"]),
                 _h(c["time_to_deficient_s"]),
-                sig(c["ventilation_needed_m3_per_h"])
+                "fans off"
+                if not c.get("fans_running", True)
+                else sig(c["ventilation_needed_m3_per_h"])
                 if c["ventilation_needed_m3_per_h"] is not None
                 else "none helps",
             ]
