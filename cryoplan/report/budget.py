@@ -49,11 +49,32 @@ def _summary(data: dict) -> list:
         rows.append([f"Static boil-off, {cry}", f"{litres(v)} L/day"])
     for cry, v in s.get("hold_time_h", {}).items():
         rows.append([f"Hold time, {cry} (full to empty)", duration_h(v)])
+    baths = (data.get("loads") or {}).get("baths", [])
+    month: dict[str, list] = {}
+    for b in baths:
+        entry = month.setdefault(b["cryogen"], [0.0, None, b["currency"], b["month_days"]])
+        entry[0] += b["month_order_L"]
+        if b["month_cost"] is not None:
+            entry[1] = (entry[1] or 0.0) + b["month_cost"]
+    for cry, (order, cost, currency, days) in month.items():
+        text = f"{litres(order)} L" + (f", {money(cost, currency)}" if cost is not None else "")
+        rows.append([f"Running {days:g} days, {cry}", text])
     if s.get("cooldown_time_h") is not None:
         rows.append(["Cooldown time (cooler)", duration_h(s["cooldown_time_h"])])
+    blocks = []
     if s.get("lowest_oxygen_percent") is not None:
         rows.append(["Lowest oxygen, worst room case", f"{s['lowest_oxygen_percent']:.1f} %"])
-    return [Heading("Summary"), Table(["Figure", "Value"], rows, "ll", name="summary")]
+    blocks = [Heading("Summary"), Table(["Figure", "Value"], rows, "ll", name="summary")]
+    if s.get("lowest_oxygen_percent") is not None:
+        from ..safety import DEFERRAL
+
+        blocks.append(
+            Paragraph(
+                "The oxygen figure is a planning estimate for a well-mixed room, not a risk "
+                "assessment (see Room oxygen checks and Cautions). " + DEFERRAL
+            )
+        )
+    return blocks
 
 
 def _cold_mass(data: dict) -> list:
