@@ -27,7 +27,7 @@ from textual.app import App, ComposeResult
 from textual.binding import Binding
 from textual.containers import Vertical
 from textual.message import Message
-from textual.widgets import ContentSwitcher, Footer, Input, Label, Static
+from textual.widgets import ContentSwitcher, Input, Label, Static
 
 from ..errors import CryoplanError, InputError, InputErrors
 from . import panels as panel_map
@@ -40,6 +40,7 @@ from .widgets import (
     EditBar,
     Figures,
     HelpScreen,
+    KeyLine,
     MaterialPicker,
     PanelBar,
     PromptScreen,
@@ -178,7 +179,7 @@ class CryoplanApp(App):
             yield ResultsPanel("notes", id="notes")
         yield EditBar(id="editbar")
         yield Static("", id="status", markup=False)
-        yield Footer(show_command_palette=False, compact=True)
+        yield KeyLine(id="keys")
 
     def on_mount(self) -> None:
         import asyncio

@@ -12,7 +12,7 @@ from rich import box
 from rich.console import Group
 from rich.table import Table as RichTable
 from rich.text import Text
-from textual import on
+from textual import events, on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical, VerticalScroll
@@ -279,7 +279,115 @@ class PanelBar(Static):
         self.update(out)
 
 
+class KeyLine(Static):
+    """The keys that work now, on one line, as Textual's compact footer shows them.
+
+    Drawn as one line of text: the footer builds a widget for every key each time the
+    focus moves (twice an edit), which costs more than the redraw of the figures.
+    A key is pressed by clicking it, as in the footer.
+    """
+
+    DEFAULT_CSS = """
+    KeyLine {
+        dock: bottom;
+        height: 1;
+        text-wrap: nowrap;
+        text-overflow: clip;
+        color: $footer-foreground;
+        background: $footer-background;
+    }
+    KeyLine > .keyline--key {
+        color: $footer-key-foreground;
+        background: $footer-key-background;
+        text-style: bold;
+    }
+    KeyLine > .keyline--description {
+        color: $footer-description-foreground;
+        background: $footer-description-background;
+    }
+    """
+    COMPONENT_CLASSES = {"keyline--key", "keyline--description"}
+    ALLOW_SELECT = False
+
+    def __init__(self, **kwargs) -> None:
+        super().__init__("", markup=False, **kwargs)
+        self._keys: list[tuple[int, int, str]] = []  # (from column, to column, key)
+        self._shown: tuple | None = None
+
+    def on_mount(self) -> None:
+        self.screen.bindings_updated_signal.subscribe(self, self._bindings_changed)
+        self.call_after_refresh(self.draw)
+
+    def on_unmount(self) -> None:
+        self.screen.bindings_updated_signal.unsubscribe(self)
+
+    def _bindings_changed(self, screen) -> None:
+        if self.is_attached and screen is self.screen:
+            self.draw()
+
+    def entries(self) -> list[tuple[str, str, str, bool]]:
+        """(key, shown key, description, enabled) of each action shown, in footer order."""
+        by_action: dict[str, tuple[str, str, str, bool]] = {}
+        for _, binding, enabled, _tip in self.screen.active_bindings.values():
+            if binding.show and binding.action not in by_action:
+                shown = self.app.get_key_display(binding)
+                by_action[binding.action] = (binding.key, shown, binding.description, enabled)
+        return list(by_action.values())
+
+    def draw(self) -> None:
+        """Show the keys of the focused widget and of the dashboard (if they changed)."""
+        if not self.is_attached:
+            return
+        entries = self.entries()
+        if entries == self._shown:
+            return
+        self._shown = entries
+        key_style = self.get_component_rich_style("keyline--key")
+        text_style = self.get_component_rich_style("keyline--description")
+        out = Text(no_wrap=True, overflow="crop")
+        self._keys = []
+        for key, shown, description, enabled in entries:
+            start = len(out)
+            dim = "" if enabled else " dim"
+            out.append(shown, style=f"{key_style}{dim}")
+            if description:
+                out.append(" " + description, style=f"{text_style}{dim}")
+            self._keys.append((start, len(out), key))
+            out.append(" ")
+        self.update(out, layout=False)
+
+    def on_mouse_down(self, event: events.MouseDown) -> None:
+        for start, end, key in self._keys:
+            if start <= event.x < end:
+                self.app.simulate_key(key)
+                return
+
+
 # --- the cold-mass editor --------------------------------------------------------------
+
+
+def set_cell(table: DataTable, row_key: str, column_key: str, value) -> None:
+    """Change one cell of ``table`` and render only that cell again.
+
+    ``DataTable.update_cell`` counts an update of the whole table, which renders every
+    visible cell again (about 0.1 ms each); here only the changed cell's renders are
+    dropped. Falls back to ``update_cell`` where the table's caches are not as expected.
+    """
+    try:
+        from textual.widgets._data_table import ColumnKey, RowKey
+
+        row, column = RowKey(row_key), ColumnKey(column_key)
+        table._data[row][column] = value
+        cells = table._cell_render_cache
+        for key in [k for k in cells.keys() if k[0] == row and k[1] == column]:
+            cells.discard(key)
+        table._row_renderable_cache.discard((table._update_count, table._row_locations.get(row)))
+        table._row_render_cache.clear()
+        table._line_cache.clear()
+    except (AttributeError, ImportError, KeyError, TypeError):
+        table.update_cell(row_key, column_key, value)
+        return
+    table.refresh()
 
 
 class ColdMassTable(DataTable):
@@ -353,7 +461,7 @@ class ColdMassTable(DataTable):
             for (key, cells), (_, before) in zip(rows, shown):
                 for column, new, old in zip(columns, cells, before):
                     if (new.plain, str(new.style)) != (old.plain, str(old.style)):
-                        self.update_cell(key, column, new)
+                        set_cell(self, key, column, new)
             self._shown = rows
             return
         row, col = self.cursor_coordinate
@@ -413,7 +521,7 @@ class SettingsTable(DataTable):
         if shown is not None and [r.key for r in shown] == keys:
             for new, old in zip(rows, shown):
                 if new.value != old.value:
-                    self.update_cell(new.key, "value", new.value)
+                    set_cell(self, new.key, "value", new.value)
         else:
             row = self.cursor_row
             self.clear()
