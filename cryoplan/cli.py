@@ -44,10 +44,6 @@ def build_parser() -> argparse.ArgumentParser:
     return parser
 
 
-class _Parser(argparse.ArgumentParser):
-    pass
-
-
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
     parser = build_parser()
