@@ -37,6 +37,7 @@ from .widgets import (
     ChartView,
     ColdMassTable,
     ConfirmScreen,
+    DashboardScreen,
     EditBar,
     Figures,
     HelpScreen,
@@ -158,6 +159,9 @@ class CryoplanApp(App):
         self.edit_redrawn = None
 
     # --- layout ---------------------------------------------------------------------
+
+    def get_default_screen(self) -> DashboardScreen:
+        return DashboardScreen(id="_default")
 
     def compose(self) -> ComposeResult:
         yield Static("", id="title", markup=False)

@@ -8,6 +8,8 @@ when its content changes, and not otherwise.
 
 from __future__ import annotations
 
+import time
+
 from rich import box
 from rich.console import Group
 from rich.table import Table as RichTable
@@ -17,7 +19,7 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical, VerticalScroll
 from textual.message import Message
-from textual.screen import ModalScreen
+from textual.screen import ModalScreen, Screen
 from textual.scrollbar import ScrollBar, ScrollBarRender
 from textual.widget import Widget
 from textual.widgets import DataTable, Input, Label, OptionList, Static
@@ -371,7 +373,7 @@ def set_cell(table: DataTable, row_key: str, column_key: str, value) -> None:
 
     ``DataTable.update_cell`` counts an update of the whole table, which renders every
     visible cell again (about 0.1 ms each); here only the changed cell's renders are
-    dropped. Falls back to ``update_cell`` where the table's caches are not as expected.
+    dropped, and only its row is drawn again. Falls back to ``update_cell`` where the table's caches are not as expected.
     """
     try:
         from textual.widgets._data_table import ColumnKey, RowKey
@@ -381,16 +383,32 @@ def set_cell(table: DataTable, row_key: str, column_key: str, value) -> None:
         cells = table._cell_render_cache
         for key in [k for k in cells.keys() if k[0] == row and k[1] == column]:
             cells.discard(key)
-        table._row_renderable_cache.discard((table._update_count, table._row_locations.get(row)))
+        index = table._row_locations.get(row)
+        table._row_renderable_cache.discard((table._update_count, index))
         table._row_render_cache.clear()
         table._line_cache.clear()
     except (AttributeError, ImportError, KeyError, TypeError):
         table.update_cell(row_key, column_key, value)
         return
-    table.refresh()
+    table.refresh_row(index)  # the other rows' lines stay as drawn
 
 
-class ColdMassTable(DataTable):
+class _SteadyTable(DataTable):
+    """A table that keeps its rendered cells when only its height changes.
+
+    ``DataTable`` renders every cell again after any resize; with columns of fixed width
+    a new height (the edit bar opening or closing) changes no cell.
+    """
+
+    _rendered_width: int | None = None
+
+    def _on_resize(self, event: events.Resize) -> None:
+        if event.size.width == self._rendered_width:
+            event.prevent_default()  # skips DataTable's handler, which drops every cell
+        self._rendered_width = event.size.width
+
+
+class ColdMassTable(_SteadyTable):
     """Stages and parts as written in the plan; enter edits the cell under the cursor."""
 
     BINDINGS = [
@@ -499,7 +517,7 @@ class ColdMassTable(DataTable):
         self._ask("remove")
 
 
-class SettingsTable(DataTable):
+class SettingsTable(_SteadyTable):
     """The cooldown steps, baths and supplies as written; enter edits the value."""
 
     BINDINGS = [Binding("enter", "edit", "Edit", key_display="enter")]
@@ -556,6 +574,43 @@ class EditBar(Vertical):
 
     def action_cancel(self) -> None:
         self.post_message(self.Cancelled())
+
+
+# --- screens ----------------------------------------------------------------------------
+
+
+class DashboardScreen(Screen):
+    """The dashboard's screen: a change is drawn as soon as the screen is idle.
+
+    Textual draws at the next slot of its frame timer, which after a long frame is up to
+    two frames (33 ms at 60 frames a second) away even when nothing else is to be done;
+    here the frame is drawn at once, never more often than that frame rate allows. An
+    idle screen draws nothing, as before.
+    """
+
+    #: The shortest time between two frames drawn here [s] (Textual's frame rate).
+    FRAME_SECONDS = 1 / 60
+    _last_frame = 0.0
+
+    async def _on_idle(self, event: events.Idle) -> None:
+        try:
+            due = (
+                not self.app._batch_count
+                and self.is_current
+                and (
+                    self._layout_required
+                    or self._scroll_required
+                    or self._repaint_required
+                    or self._dirty_widgets
+                )
+            )
+            now = time.perf_counter()
+            if due and now - self._last_frame >= self.FRAME_SECONDS:
+                self._last_frame = now
+                self._on_timer_update()
+        except AttributeError:  # another Textual: leave the drawing to its timer
+            pass
+        # Screen._on_idle runs next: it draws what is left, then runs the callbacks
 
 
 # --- dialogs ----------------------------------------------------------------------------
