@@ -55,6 +55,12 @@ from .widgets import (
 #: How long a changed figure stays marked [s].
 MARK_SECONDS = 1.5
 
+#: After an accepted edit, how long the screen waits for the new figures, so that the
+#: edit and the figures it changes are drawn in one frame instead of two [s]. A slower
+#: evaluation (a cooldown simulation) is drawn when this has passed, then again with its
+#: figures.
+HOLD_SECONDS = 0.04
+
 #: The short deferral that stands beside every oxygen figure.
 OXYGEN_DEFERRAL = (
     "planning aid only: local codes, the site's safety office and licensed practice decide"
@@ -145,6 +151,7 @@ class CryoplanApp(App):
         self._cells: dict = {}
         self._highlight: set = set()
         self._mark_timer = None
+        self._hold = None  # the one-shot timer that ends a wait for new figures
         self._edit_started: float | None = None
         #: seconds from the last accepted edit to the redraw of its figures
         self.last_edit_seconds: float | None = None
@@ -279,6 +286,7 @@ class CryoplanApp(App):
             first_line = message.error.splitlines()[0]
             self._status(f"No figures: {first_line} (details in the panels)")
             self._show_results(None, None)
+            self._release_frames()
             return
         first = self.data is None
         self.data, self.blocks = message.data, message.blocks
@@ -292,6 +300,19 @@ class CryoplanApp(App):
         if self._edit_started is not None:
             started, self._edit_started = self._edit_started, None
             self.call_after_refresh(self._redrawn, started)
+        self._release_frames()
+
+    def _hold_frames(self) -> None:
+        """Draw nothing until the new figures are shown or HOLD_SECONDS have passed."""
+        if self._hold is None:
+            self._begin_batch()
+            self._hold = self.set_timer(HOLD_SECONDS, self._release_frames)
+
+    def _release_frames(self) -> None:
+        if self._hold is not None:
+            self._hold.stop()
+            self._hold = None
+            self._end_batch()
 
     def _redrawn(self, started: float) -> None:
         self.last_edit_seconds = time.perf_counter() - started
@@ -724,6 +745,7 @@ class CryoplanApp(App):
         self._fill_settings()
         self._show_title()
         self._status(done)
+        self._hold_frames()
         self._evaluate()
 
     # --- undo, redo, reload ---------------------------------------------------------

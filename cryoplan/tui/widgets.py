@@ -368,44 +368,82 @@ class KeyLine(Static):
 # --- the cold-mass editor --------------------------------------------------------------
 
 
-def set_cell(table: DataTable, row_key: str, column_key: str, value) -> None:
-    """Change one cell of ``table`` and render only that cell again.
-
-    ``DataTable.update_cell`` counts an update of the whole table, which renders every
-    visible cell again (about 0.1 ms each); here only the changed cell's renders are
-    dropped, and only its row is drawn again. Falls back to ``update_cell`` where the table's caches are not as expected.
-    """
-    try:
-        from textual.widgets._data_table import ColumnKey, RowKey
-
-        row, column = RowKey(row_key), ColumnKey(column_key)
-        table._data[row][column] = value
-        cells = table._cell_render_cache
-        for key in [k for k in cells.keys() if k[0] == row and k[1] == column]:
-            cells.discard(key)
-        index = table._row_locations.get(row)
-        table._row_renderable_cache.discard((table._update_count, index))
-        table._row_render_cache.clear()
-        table._line_cache.clear()
-    except (AttributeError, ImportError, KeyError, TypeError):
-        table.update_cell(row_key, column_key, value)
-        return
-    table.refresh_row(index)  # the other rows' lines stay as drawn
-
-
 class _SteadyTable(DataTable):
-    """A table that keeps its rendered cells when only its height changes.
+    """A table that renders again only the cells that changed.
 
-    ``DataTable`` renders every cell again after any resize; with columns of fixed width
-    a new height (the edit bar opening or closing) changes no cell.
+    ``DataTable`` renders every visible cell again (about 0.1 ms each) after any change
+    of a cell, any resize and any change of focus. Here a changed cell drops only its own
+    renders; a new height (the edit bar opening or closing) drops none, the columns having
+    fixed widths; and the cells rendered with and without the focus are both kept, so
+    moving the focus to the edit bar and back renders nothing again.
     """
 
     _rendered_width: int | None = None
+    _style_key: tuple | None = None
 
     def _on_resize(self, event: events.Resize) -> None:
         if event.size.width == self._rendered_width:
             event.prevent_default()  # skips DataTable's handler, which drops every cell
         self._rendered_width = event.size.width
+
+    def _style_signature(self) -> tuple:
+        app = self.app
+        return (
+            self.get_pseudo_class_state(),
+            frozenset(self.classes),
+            frozenset(app.classes),
+            getattr(app, "theme", None),
+        )
+
+    def _kept_cells(self) -> dict:
+        if "_cells_by_style" not in self.__dict__:
+            self._cells_by_style = {}
+        return self._cells_by_style
+
+    def notify_style_update(self) -> None:
+        try:
+            from textual.cache import LRUCache
+
+            rendered, before = self._cell_render_cache, self._style_key
+            self._cell_render_cache = LRUCache(rendered.maxsize)
+            super().notify_style_update()  # drops the other caches, as it should
+            now = self._style_signature()
+        except (AttributeError, ImportError, TypeError):
+            super().notify_style_update()
+            return
+        kept = self._kept_cells()
+        if before is not None:
+            kept[before] = rendered
+        if len(kept) > 4:  # a theme or class change: start afresh
+            kept.clear()
+        self._cell_render_cache = kept.pop(now, self._cell_render_cache)
+        self._style_key = now
+
+    def _clear_caches(self) -> None:
+        super()._clear_caches()
+        self._kept_cells().clear()
+
+    def set_cell(self, row_key: str, column_key: str, value) -> None:
+        """Change one cell; only that cell is rendered again, only its row redrawn.
+
+        Falls back to ``update_cell`` where the table's caches are not as expected.
+        """
+        try:
+            from textual.widgets._data_table import ColumnKey, RowKey
+
+            row, column = RowKey(row_key), ColumnKey(column_key)
+            self._data[row][column] = value
+            for cells in [self._cell_render_cache, *self._kept_cells().values()]:
+                for key in [k for k in cells.keys() if k[0] == row and k[1] == column]:
+                    cells.discard(key)
+            index = self._row_locations.get(row)
+            self._row_renderable_cache.discard((self._update_count, index))
+            self._row_render_cache.clear()
+            self._line_cache.clear()
+        except (AttributeError, ImportError, KeyError, TypeError):
+            self.update_cell(row_key, column_key, value)
+            return
+        self.refresh_row(index)  # the other rows' lines stay as drawn
 
 
 class ColdMassTable(_SteadyTable):
@@ -479,7 +517,7 @@ class ColdMassTable(_SteadyTable):
             for (key, cells), (_, before) in zip(rows, shown):
                 for column, new, old in zip(columns, cells, before):
                     if (new.plain, str(new.style)) != (old.plain, str(old.style)):
-                        set_cell(self, key, column, new)
+                        self.set_cell(key, column, new)
             self._shown = rows
             return
         row, col = self.cursor_coordinate
@@ -539,7 +577,7 @@ class SettingsTable(_SteadyTable):
         if shown is not None and [r.key for r in shown] == keys:
             for new, old in zip(rows, shown):
                 if new.value != old.value:
-                    set_cell(self, new.key, "value", new.value)
+                    self.set_cell(new.key, "value", new.value)
         else:
             row = self.cursor_row
             self.clear()
