@@ -476,6 +476,89 @@ def test_plain_mode_has_no_box_or_braille_characters():
     assert BRAILLE.search("".join(drawn.lines)) and "│" in "".join(drawn.lines)
 
 
+def screen_row(app: CryoplanApp, label: str) -> str:
+    """The first line of the screen that holds ``label``."""
+    return next(line for line in app.screen_text().split("\n") if label in line)
+
+
+def test_edited_cells_are_drawn_again_on_screen(plan_file):
+    """The table draws only the cells that changed: the edited mass and its stage's total
+    show on the screen, after the focus went to the edit bar and back, and after undo."""
+
+    async def go():
+        app = CryoplanApp(plan_file)
+        async with app.run_test(size=(80, 24)) as pilot:
+            await settled(app, pilot)
+            # the demo plan's cold plate: 14 + 22 + 3.5 + 0.8 kg = 40.3 kg (its parts)
+            assert "40.3 kg" in screen_row(app, "cold plate")
+            await edit_cell(app, pilot, "p1.1", "mass", "30 kg")  # former: 22 kg -> 30 kg
+            await settled(app, pilot)
+            assert "30 kg" in screen_row(app, "former")
+            assert "48.3 kg" in screen_row(app, "cold plate")  # 40.3 - 22 + 30
+            await pilot.press("2", "1")  # another panel and back: the focus moves
+            await pilot.pause()
+            assert "30 kg" in screen_row(app, "former")
+            await pilot.press("u")
+            await settled(app, pilot)
+            assert "22 kg" in screen_row(app, "former")
+            assert "40.3 kg" in screen_row(app, "cold plate")
+
+    run(go())
+
+
+def test_key_line_follows_the_focus_and_takes_clicks(plan_file):
+    async def go():
+        app = CryoplanApp(plan_file)
+        async with app.run_test(size=(80, 24)) as pilot:
+            await settled(app, pilot)
+            keys = app.screen_text().split("\n")[-1]
+            assert "enter Edit" in keys and "m Material" in keys and "q Quit" in keys
+            put_cursor(app, "p1.1", "mass")
+            await pilot.press("enter")
+            await pilot.pause()
+            assert "esc Cancel" in app.screen_text().split("\n")[-1]
+            await pilot.press("escape")
+            await pilot.pause()
+            keys = app.screen_text().split("\n")[-1]
+            assert "esc Cancel" not in keys and "enter Edit" in keys
+            await pilot.click("#keys", offset=(keys.index("? Help") + 2, 0))
+            await pilot.pause()
+            assert type(app.screen).__name__ == "HelpScreen"
+
+    run(go())
+
+
+def test_a_slow_evaluation_does_not_hold_the_screen(plan_file, monkeypatch):
+    """The screen waits for new figures only HOLD_SECONDS; a slow evaluation (a cooldown
+    simulation) leaves the edit drawn and the screen working meanwhile."""
+    import cryoplan
+    from cryoplan.tui import app as app_module
+
+    async def go():
+        app = CryoplanApp(plan_file)
+        async with app.run_test(size=(80, 24)) as pilot:
+            await settled(app, pilot)
+            evaluate = cryoplan.evaluate
+
+            def slow(plan):
+                time.sleep(1.0)
+                return evaluate(plan)
+
+            monkeypatch.setattr(cryoplan, "evaluate", slow)
+            await edit_cell(app, pilot, "p1.1", "mass", "30 kg")
+            await pilot.pause(app_module.HOLD_SECONDS + 0.2)
+            assert app.evaluating  # still computing ...
+            screen = app.screen_text()
+            assert "Mass set to 30 kg" in screen and "Mass of former" not in screen
+            assert "30 kg" in screen_row(app, "former")  # ... and the edit is drawn
+            await pilot.press("2")  # keys work meanwhile
+            await pilot.pause()
+            assert "[2 Budget]" in app.screen_text()
+            await settled(app, pilot)
+
+    run(go())
+
+
 def test_no_redraws_while_idle():
     async def go():
         app = CryoplanApp(demo_plan_path(), bundled=True)
