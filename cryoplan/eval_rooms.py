@@ -6,6 +6,7 @@ and the summary's ``lowest_oxygen_percent``. The physics is in :mod:`cryoplan.sa
 
 from __future__ import annotations
 
+import copy
 import math
 
 import numpy as np
@@ -92,6 +93,158 @@ def _finite(x):
     return None if x is None or not math.isfinite(x) else float(x)
 
 
+_ROOM_CACHE: dict = {}
+
+
+def _room_key(room, vessels) -> tuple:
+    """Everything a room's figures depend on (the dashboard re-evaluates on every edit)."""
+    return (
+        room.name,
+        room.volume,
+        room.ventilation,
+        room.alarm,
+        room.temperature,
+        tuple(tuple(sorted((k, str(v)) for k, v in vessel.items())) for vessel in vessels),
+    )
+
+
+def _room_entry(room, vessels) -> dict:
+    """The cases, verdict and curves of one room (pure: same inputs, same figures)."""
+    key = _room_key(room, vessels)
+    if key in _ROOM_CACHE:
+        return copy.deepcopy(_ROOM_CACHE[key])
+    background = sum(safety.gas_rate(v["boiloff_liquid_m3_s"], v["ratio"]) for v in vessels)
+    cases = []
+    for v in vessels:
+        cases.append(
+            (
+                safety.sudden_release_case(
+                    v["liquid_m3"],
+                    v["ratio"],
+                    background_rate=background,
+                    label=f"sudden release: {v['name']}",
+                ),
+                math.inf,
+            )
+        )
+        if v["quench"]:
+            cases.append(
+                (
+                    safety.quench_case(
+                        v["liquid_m3"],
+                        v["ratio"],
+                        fraction=v["quench_fraction"],
+                        duration=v["quench_time_s"],
+                        background_rate=background,
+                        label=f"quench: {v['name']}",
+                    ),
+                    math.inf,
+                )
+            )
+        if v["failure_gas_m3_s"]:
+            cases.append(
+                (
+                    safety.loss_of_vacuum_case(
+                        v["liquid_m3"],
+                        v["ratio"],
+                        v["failure_gas_m3_s"],
+                        background_rate=background,
+                        label=f"loss of vacuum: {v['name']}",
+                    ),
+                    math.inf,
+                )
+            )
+    if background > 0:
+        cases.append((safety.boiloff_case(background), math.inf))
+        cases.append((safety.ventilation_failure_case(background), VENTILATION_FAILURE_HORIZON_S))
+    out_cases = []
+    times = np.linspace(0.0, CURVE_SPAN_S, 121)
+    curves = []
+    for release, horizon in cases:
+        a = safety.assess_release(
+            room.volume, room.ventilation, release, alarm_percent=room.alarm, horizon=horizon
+        )
+        out_cases.append(
+            {
+                "case": release.label,
+                "lowest_percent": float(a.lowest_percent),
+                "time_to_alarm_s": _finite(a.time_to_alarm_s),
+                "time_to_deficient_s": _finite(a.time_to_deficient_s),
+                "time_to_recover_s": _finite(a.time_to_recover_s),
+                "ventilation_needed_m3_per_h": _finite(a.ventilation_needed * 3600.0),
+                "minimum_room_volume_m3": _finite(a.minimum_room_volume),
+                "sudden_drop_percent": float(a.sudden_drop_percent),
+                "horizon_h": _finite(horizon / 3600.0),
+                "fans_running": release.ventilation_working > 0,
+                "_a": a,
+            }
+        )
+        curves.append(
+            {
+                "case": release.label,
+                "time_min": (times / 60).tolist(),
+                "oxygen_percent": np.asarray(
+                    safety.oxygen_curve(times, room.volume, room.ventilation, release)
+                ).tolist(),
+            }
+        )
+    worst = min(out_cases, key=lambda c: c["lowest_percent"]) if out_cases else None
+    verdict = []
+    if worst is not None:
+        cont = [
+            c
+            for c in out_cases
+            if c["_a"].continuous_ventilation_needed > 0 and "sudden" not in c["case"]
+        ]
+        need = max(cont, key=lambda c: c["_a"].continuous_ventilation_needed) if cont else None
+        sudden = [c for c in out_cases if c["case"].startswith("sudden")]
+        worst_sudden = min(sudden, key=lambda c: c["sudden_drop_percent"]) if sudden else None
+        recover = [
+            c["_a"].time_to_recover_s
+            for c in out_cases
+            if math.isfinite(c["_a"].time_to_recover_s)
+        ]
+        verdict = safety.room_verdict(
+            worst["lowest_percent"],
+            min(c["_a"].time_to_alarm_s for c in out_cases),
+            room.alarm,
+            ventilation=room.ventilation,
+            ventilation_needed=None if need is None else need["_a"].continuous_ventilation_needed,
+            ventilation_case=None if need is None else need["case"],
+            sudden_drop_percent=None
+            if worst_sudden is None
+            else worst_sudden["sudden_drop_percent"],
+            minimum_room_volume=None
+            if worst_sudden is None
+            else worst_sudden["_a"].minimum_room_volume,
+            room_volume=room.volume,
+            time_to_recover_s=max(recover) if recover else None,
+        )
+    for c in out_cases:
+        del c["_a"]
+    entry = {
+        "name": room.name,
+        "volume_m3": room.volume,
+        "ventilation_m3_per_h": room.ventilation * 3600.0,
+        "air_changes_per_h": room.ventilation * 3600.0 / room.volume,
+        "alarm_percent": room.alarm,
+        "vessels": [
+            {k: v[k] for k in ("name", "cryogen", "liquid_m3", "ratio", "bath", "boiloff_source")}
+            | {"gas_m3": v["liquid_m3"] * v["ratio"]}
+            for v in vessels
+        ],
+        "cases": out_cases,
+        "worst_case": None if worst is None else worst["case"],
+        "lowest_percent": None if worst is None else worst["lowest_percent"],
+        "verdict": verdict,
+        "curves": curves,
+    }
+    if len(_ROOM_CACHE) > 64:
+        _ROOM_CACHE.clear()
+    _ROOM_CACHE[key] = copy.deepcopy(entry)
+    return entry
+
+
 def analyse_rooms(plan: Plan, data: dict) -> None:
     """Evaluation hook: oxygen cases, verdicts and cautions for every room."""
     if not plan.rooms:
@@ -100,139 +253,8 @@ def analyse_rooms(plan: Plan, data: dict) -> None:
     worst_all = None
     for index, room in enumerate(plan.rooms):
         vessels = _vessels(plan, room, index, data)
-        background = sum(safety.gas_rate(v["boiloff_liquid_m3_s"], v["ratio"]) for v in vessels)
-        cases = []
-        for v in vessels:
-            cases.append(
-                (
-                    safety.sudden_release_case(
-                        v["liquid_m3"],
-                        v["ratio"],
-                        background_rate=background,
-                        label=f"sudden release: {v['name']}",
-                    ),
-                    math.inf,
-                )
-            )
-            if v["quench"]:
-                cases.append(
-                    (
-                        safety.quench_case(
-                            v["liquid_m3"],
-                            v["ratio"],
-                            fraction=v["quench_fraction"],
-                            duration=v["quench_time_s"],
-                            background_rate=background,
-                            label=f"quench: {v['name']}",
-                        ),
-                        math.inf,
-                    )
-                )
-            if v["failure_gas_m3_s"]:
-                cases.append(
-                    (
-                        safety.loss_of_vacuum_case(
-                            v["liquid_m3"],
-                            v["ratio"],
-                            v["failure_gas_m3_s"],
-                            background_rate=background,
-                            label=f"loss of vacuum: {v['name']}",
-                        ),
-                        math.inf,
-                    )
-                )
-        if background > 0:
-            cases.append((safety.boiloff_case(background), math.inf))
-            cases.append(
-                (safety.ventilation_failure_case(background), VENTILATION_FAILURE_HORIZON_S)
-            )
-        out_cases = []
-        times = np.linspace(0.0, CURVE_SPAN_S, 121)
-        curves = []
-        for release, horizon in cases:
-            a = safety.assess_release(
-                room.volume, room.ventilation, release, alarm_percent=room.alarm, horizon=horizon
-            )
-            out_cases.append(
-                {
-                    "case": release.label,
-                    "lowest_percent": float(a.lowest_percent),
-                    "time_to_alarm_s": _finite(a.time_to_alarm_s),
-                    "time_to_deficient_s": _finite(a.time_to_deficient_s),
-                    "time_to_recover_s": _finite(a.time_to_recover_s),
-                    "ventilation_needed_m3_per_h": _finite(a.ventilation_needed * 3600.0),
-                    "minimum_room_volume_m3": _finite(a.minimum_room_volume),
-                    "sudden_drop_percent": float(a.sudden_drop_percent),
-                    "horizon_h": _finite(horizon / 3600.0),
-                    "fans_running": release.ventilation_working > 0,
-                    "_a": a,
-                }
-            )
-            curves.append(
-                {
-                    "case": release.label,
-                    "time_min": (times / 60).tolist(),
-                    "oxygen_percent": np.asarray(
-                        safety.oxygen_curve(times, room.volume, room.ventilation, release)
-                    ).tolist(),
-                }
-            )
-        worst = min(out_cases, key=lambda c: c["lowest_percent"]) if out_cases else None
-        verdict = []
-        if worst is not None:
-            cont = [
-                c
-                for c in out_cases
-                if c["_a"].continuous_ventilation_needed > 0 and "sudden" not in c["case"]
-            ]
-            need = max(cont, key=lambda c: c["_a"].continuous_ventilation_needed) if cont else None
-            sudden = [c for c in out_cases if c["case"].startswith("sudden")]
-            worst_sudden = min(sudden, key=lambda c: c["sudden_drop_percent"]) if sudden else None
-            recover = [
-                c["_a"].time_to_recover_s
-                for c in out_cases
-                if math.isfinite(c["_a"].time_to_recover_s)
-            ]
-            verdict = safety.room_verdict(
-                worst["lowest_percent"],
-                min(c["_a"].time_to_alarm_s for c in out_cases),
-                room.alarm,
-                ventilation=room.ventilation,
-                ventilation_needed=None
-                if need is None
-                else need["_a"].continuous_ventilation_needed,
-                ventilation_case=None if need is None else need["case"],
-                sudden_drop_percent=None
-                if worst_sudden is None
-                else worst_sudden["sudden_drop_percent"],
-                minimum_room_volume=None
-                if worst_sudden is None
-                else worst_sudden["_a"].minimum_room_volume,
-                room_volume=room.volume,
-                time_to_recover_s=max(recover) if recover else None,
-            )
-        for c in out_cases:
-            del c["_a"]
-        entry = {
-            "name": room.name,
-            "volume_m3": room.volume,
-            "ventilation_m3_per_h": room.ventilation * 3600.0,
-            "air_changes_per_h": room.ventilation * 3600.0 / room.volume,
-            "alarm_percent": room.alarm,
-            "vessels": [
-                {
-                    k: v[k]
-                    for k in ("name", "cryogen", "liquid_m3", "ratio", "bath", "boiloff_source")
-                }
-                | {"gas_m3": v["liquid_m3"] * v["ratio"]}
-                for v in vessels
-            ],
-            "cases": out_cases,
-            "worst_case": None if worst is None else worst["case"],
-            "lowest_percent": None if worst is None else worst["lowest_percent"],
-            "verdict": verdict,
-            "curves": curves,
-        }
+        entry = _room_entry(room, vessels)
+        worst = None if entry["lowest_percent"] is None else entry
         rooms_out.append(entry)
         if worst is not None and (worst_all is None or worst["lowest_percent"] < worst_all):
             worst_all = worst["lowest_percent"]
