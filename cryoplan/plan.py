@@ -486,6 +486,22 @@ def _known_cryogen(reader: _Reader, name, key: str) -> str | None:
     return None
 
 
+def _checked_boiling_point(reader, cryogen: str, pressure: float, key: str) -> float | None:
+    """The boiling point at the pressure, or None with the problem recorded at ``key``."""
+    try:
+        return _boiling_point(cryogen, pressure)
+    except CryoplanError as exc:
+        reader.errors.append(
+            InputError(
+                getattr(exc, "message", str(exc)),
+                expected=getattr(exc, "expected", None),
+                found=getattr(exc, "found", None),
+                **reader.where(key),
+            )
+        )
+        return None
+
+
 def _boiling_point(cryogen: str, pressure: float) -> float:
     from .fluids import cryogen as _cryogen
 
@@ -695,17 +711,8 @@ def _cooldown(reader: _Reader, raw, stages: list[Stage], ambient: float, plan_no
             continue
         written = to
         note = ""
-        try:
-            tb = _boiling_point(cry, pressure)
-        except CryoplanError as exc:
-            reader.errors.append(
-                InputError(
-                    getattr(exc, "message", str(exc)),
-                    expected=getattr(exc, "expected", None),
-                    found=getattr(exc, "found", None),
-                    **reader.where(f"{key}.pressure"),
-                )
-            )
+        tb = _checked_boiling_point(reader, cry, pressure, f"{key}.pressure")
+        if tb is None:
             continue
         if to < tb - BOILING_POINT_SNAP_K:
             reader.error(
@@ -794,17 +801,8 @@ def _baths(reader: _Reader, raw_list, stages: list[Stage]) -> list[Bath]:
             continue
         if None in (cry, volume, stage, pressure):
             continue
-        try:
-            tb = _boiling_point(cry, pressure)
-        except CryoplanError as exc:
-            reader.errors.append(
-                InputError(
-                    getattr(exc, "message", str(exc)),
-                    expected=getattr(exc, "expected", None),
-                    found=getattr(exc, "found", None),
-                    **reader.where(f"{key}.pressure"),
-                )
-            )
+        tb = _checked_boiling_point(reader, cry, pressure, f"{key}.pressure")
+        if tb is None:
             continue
         st = names[stage].temperature
         if st < tb - BOILING_POINT_SNAP_K:
