@@ -104,6 +104,7 @@ def _room_key(room, vessels) -> tuple:
         room.ventilation,
         room.alarm,
         room.temperature,
+        room.sudden_model,
         tuple(tuple(sorted((k, str(v)) for k, v in vessel.items())) for vessel in vessels),
     )
 
@@ -162,7 +163,12 @@ def _room_entry(room, vessels) -> dict:
     curves = []
     for release, horizon in cases:
         a = safety.assess_release(
-            room.volume, room.ventilation, release, alarm_percent=room.alarm, horizon=horizon
+            room.volume,
+            room.ventilation,
+            release,
+            alarm_percent=room.alarm,
+            horizon=horizon,
+            sudden_model=room.sudden_model,
         )
         out_cases.append(
             {
@@ -184,7 +190,13 @@ def _room_entry(room, vessels) -> dict:
                 "case": release.label,
                 "time_min": (times / 60).tolist(),
                 "oxygen_percent": np.asarray(
-                    safety.oxygen_curve(times, room.volume, room.ventilation, release)
+                    safety.oxygen_curve(
+                        times,
+                        room.volume,
+                        room.ventilation,
+                        release,
+                        sudden_model=room.sudden_model,
+                    )
                 ).tolist(),
             }
         )
@@ -228,6 +240,7 @@ def _room_entry(room, vessels) -> dict:
         "ventilation_m3_per_h": room.ventilation * 3600.0,
         "air_changes_per_h": room.ventilation * 3600.0 / room.volume,
         "alarm_percent": room.alarm,
+        "sudden_model": room.sudden_model,
         "vessels": [
             {k: v[k] for k in ("name", "cryogen", "liquid_m3", "ratio", "bath", "boiloff_source")}
             | {"gas_m3": v["liquid_m3"] * v["ratio"]}

@@ -177,6 +177,7 @@ class Room:
     quench_fraction: float = 1.0
     key: str = ""
     line: int | None = None
+    sudden_model: str = "mixed"  # see safety.SUDDEN_RELEASE_MODELS
 
 
 @dataclass
@@ -271,6 +272,7 @@ ROOM_KEYS = {
     "quench",
     "quench_time",
     "quench_fraction",
+    "sudden_model",
 }
 VESSEL_KEYS = {
     "name",
@@ -1426,6 +1428,19 @@ def _rooms(reader: _Reader, raw) -> list[Room]:
         quench = bool(rraw.get("quench", False))
         qt = reader.quantity(rraw, "quench_time", key, "time", default=30.0, positive=True)
         qf = reader.fraction(rraw, "quench_fraction", key, 1.0)
+        from .safety import DEFAULT_SUDDEN_MODEL, SUDDEN_RELEASE_MODELS
+
+        model = rraw.get("sudden_model", DEFAULT_SUDDEN_MODEL)
+        if model not in SUDDEN_RELEASE_MODELS:
+            reader.errors.append(
+                UnknownNameError(
+                    "sudden-release model",
+                    str(model),
+                    list(SUDDEN_RELEASE_MODELS),
+                    **reader.where(f"{key}.sudden_model"),
+                )
+            )
+            model = DEFAULT_SUDDEN_MODEL
         if volume is not None:
             rooms.append(
                 Room(
@@ -1441,6 +1456,7 @@ def _rooms(reader: _Reader, raw) -> list[Room]:
                     qf,
                     key,
                     reader.lines.line_of(key),
+                    model,
                 )
             )
     return rooms

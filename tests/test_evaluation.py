@@ -437,3 +437,22 @@ def test_percent_of_carnot_alone_gives_the_real_input_of_the_static_loads():
     r = evaluate_text(text)["refrigeration"]
     assert r["real_input_W"] == pytest.approx((300 / 4.2 - 1) / 0.015)
     assert r["survey_percent"] > 0  # guidance from the published trend is shown
+
+
+def test_room_sudden_model_displacement_by_hand():
+    # the displacement form, 20.9 (1 - V_gas / V_room) (BCGA method as published in the
+    # University of Oxford Safety Office policy S4/03, appendix 1; from memory), floored at 0
+    text = BATH + ROOM.replace(
+        'ventilation = "2 /h"', 'ventilation = "2 /h"\nsudden_model = "displacement"'
+    )
+    text = text.replace('liquid = "250 L"', 'liquid = "50 L"')
+    room = evaluate_text(text)["rooms"][0]
+    gas = 0.05 * cryoplan.cryogen("helium").expansion_ratio(293.15)
+    case = [c for c in room["cases"] if c["case"] == "sudden release: helium vessel 1"][0]
+    assert case["sudden_drop_percent"] == pytest.approx(20.9 * (1 - gas / 100.0), rel=1e-6)
+    with pytest.raises(InputError, match="did you mean 'mixed'"):
+        parse_plan(
+            BATH
+            + ROOM.replace('ventilation = "2 /h"', 'ventilation = "2 /h"\nsudden_model = "mixd"'),
+            "p.toml",
+        )

@@ -226,7 +226,8 @@ def rooms_section(data: dict) -> list:
             Heading(
                 f"{room['name']}: {sig(room['volume_m3'])} m^3, "
                 f"{sig(room['ventilation_m3_per_h'])} m^3/h ({sig(room['air_changes_per_h'])} air "
-                f"changes/h), alarm at {room['alarm_percent']:g} %",
+                f"changes/h), alarm at {room['alarm_percent']:g} %, sudden releases: "
+                f"{room.get('sudden_model', 'mixed')} model",
                 level=2,
             )
         )

@@ -84,11 +84,8 @@ def render_blocks(blocks, width: int = 80) -> list[str]:
     out: list[str] = []
     for b in blocks:
         if isinstance(b, Heading):
-            out += [
-                "",
-                b.text.upper() if b.level == 1 else b.text,
-                ("=" if b.level == 1 else "-") * min(width, len(b.text)),
-            ]
+            lines = textwrap.wrap(b.text.upper() if b.level == 1 else b.text, width)
+            out += ["", *lines, ("=" if b.level == 1 else "-") * max(len(x) for x in lines)]
         elif isinstance(b, Table):
             out.append("")
             out += _wrap_table(b, width)
