@@ -32,9 +32,11 @@ def demo():
 def test_one_file_per_table_and_chart(demo, tmp_path):
     blocks = build_document(demo)
     named = [b for b in blocks if isinstance(b, (Table, Chart))]
-    paths = write_csv_folder(demo, str(tmp_path / "out"))
-    assert len(paths) == len(named) and len(set(paths)) == len(paths)
-    assert sorted(os.listdir(tmp_path / "out")) == sorted(os.path.basename(p) for p in paths)
+    all_paths = write_csv_folder(demo, str(tmp_path / "out"))
+    assert sorted(os.listdir(tmp_path / "out")) == sorted(os.path.basename(p) for p in all_paths)
+    # the printed tables and charts, then the raw-number files (values_*.csv)
+    paths = [p for p in all_paths if not os.path.basename(p).startswith("values_")]
+    assert len(paths) == len(named) and len(set(all_paths)) == len(all_paths)
     for block, path in zip(named, paths):
         if block.name:
             assert os.path.basename(path) == f"{block.name}.csv"
@@ -183,3 +185,25 @@ def test_curve_csv_without_a_cooler(demo, tmp_path, capsys):
     target = tmp_path / "curve.csv"
     assert main(["print", demo_plan_path(), "--curve", str(target)]) == 2
     assert "cooler" in capsys.readouterr().err and not target.exists()
+
+
+def test_value_csvs_carry_the_results_numbers_in_full(tmp_path):
+    # the raw-number files read back exactly what the JSON report holds (same floats)
+    import csv
+
+    import cryoplan
+    from cryoplan.plan import demo_plan_path
+    from cryoplan.report.export import write_csv_folder
+
+    data = cryoplan.evaluate(cryoplan.load_plan(demo_plan_path())).to_dict()
+    write_csv_folder(data, str(tmp_path / "out"))
+    with open(tmp_path / "out" / "values_order.csv", newline="") as fh:
+        rows = {r["cryogen"]: r for r in csv.DictReader(fh)}
+    for cry, entry in data["order"].items():
+        assert float(rows[cry]["order_L"]) == entry["order_L"]
+        assert float(rows[cry]["needed_L"]) == entry["needed_L"]
+    with open(tmp_path / "out" / "values_baths.csv", newline="") as fh:
+        baths = list(csv.DictReader(fh))
+    assert [float(b["boiloff_L_per_day"]) for b in baths] == [
+        b["boiloff_L_per_day"] for b in data["loads"]["baths"]
+    ]

@@ -45,6 +45,101 @@ def _number(value) -> str:
     return repr(value)
 
 
+def _cell(value) -> str:
+    if isinstance(value, bool) or value is None or isinstance(value, str):
+        return "" if value is None else str(value)
+    return _number(value)
+
+
+def values_files(data: dict) -> dict[str, str]:
+    """Raw-number CSVs of the main figures, from the results themselves (full precision).
+
+    The printed tables' CSVs carry the printed strings ("1.50 MJ"); these carry numbers in
+    SI or the unit named in each column, for spreadsheets. File name -> CSV text.
+
+    >>> files = values_files({"steps": [], "steps_range": [], "order": {}, "budget": {
+    ...     "bands": ["a"], "stages": [], "total": {}}})
+    >>> sorted(files)
+    ['values_budget.csv', 'values_order.csv', 'values_steps.csv']
+    """
+    files: dict[str, str] = {}
+    rows = [
+        ["step", "cryogen", "to_K", "gas_use", "liquid_low_L", "liquid_nominal_L", "liquid_high_L"]
+    ]
+    for s, r in zip(data.get("steps", []), data.get("steps_range", [])):
+        rows.append(
+            [s["step"], s["cryogen"], s["to_K"], s["gas_use"], r["low"], r["nominal"], r["high"]]
+        )
+    files["values_steps.csv"] = _csv_text([[_cell(c) for c in row] for row in rows])
+    keys = [
+        "cooldown_L",
+        "bath_fill_L",
+        "inserts_L",
+        "transfer_loss_L",
+        "heel_L",
+        "needed_L",
+        "order_L",
+        "cost",
+    ]
+    rows = [["cryogen", *keys, "currency", "order_low_L", "order_high_L"]]
+    for cry, e in data.get("order", {}).items():
+        rng = e.get("range", {})
+        rows.append(
+            [
+                cry,
+                *[e.get(k) for k in keys],
+                e.get("currency", ""),
+                rng.get("low", {}).get("order_L"),
+                rng.get("high", {}).get("order_L"),
+            ]
+        )
+    files["values_order.csv"] = _csv_text([[_cell(c) for c in row] for row in rows])
+    b = data.get("budget", {})
+    rows = [["stage", "band", "heat_J", "entropy_J_per_K", "minimum_work_J"]]
+    for st in b.get("stages", []):
+        for i, band in enumerate(b.get("bands", [])):
+            rows.append(
+                [st["stage"], band, st["heat_J"][i], st["entropy_J_per_K"][i], st["work_J"][i]]
+            )
+    files["values_budget.csv"] = _csv_text([[_cell(c) for c in row] for row in rows])
+    loads = data.get("loads")
+    if loads:
+        rows = [["stage", "load", "kind", "from", "power_W"]]
+        for it in loads["items"]:
+            rows.append([it["stage"], it["name"], it["kind"], it.get("from", ""), it["power_W"]])
+        files["values_loads.csv"] = _csv_text([[_cell(c) for c in row] for row in rows])
+        bkeys = [
+            "load_W",
+            "boiloff_L_per_h",
+            "boiloff_L_per_day",
+            "hold_h",
+            "hold_to_refill_h",
+            "month_boiloff_L",
+            "month_transfer_L",
+            "month_order_L",
+            "month_cost",
+        ]
+        rows = [["bath", "cryogen", *bkeys, "currency"]]
+        for x in loads.get("baths", []):
+            rows.append([x["name"], x["cryogen"], *[x.get(k) for k in bkeys], x["currency"]])
+        files["values_baths.csv"] = _csv_text([[_cell(c) for c in row] for row in rows])
+    rooms = data.get("rooms")
+    if rooms:
+        ckeys = [
+            "lowest_percent",
+            "time_to_alarm_s",
+            "time_to_deficient_s",
+            "time_to_recover_s",
+            "ventilation_needed_m3_per_h",
+        ]
+        rows = [["room", "case", *ckeys]]
+        for room in rooms:
+            for c in room["cases"]:
+                rows.append([room["name"], c["case"], *[c.get(k) for k in ckeys]])
+        files["values_rooms.csv"] = _csv_text([[_cell(c) for c in row] for row in rows])
+    return files
+
+
 def curve_csv(data: dict) -> str:
     """The cooler's cooldown curve, time against each stage's temperature, as CSV text.
 
@@ -198,6 +293,7 @@ def write_csv_folder(data: dict, folder: str) -> list[str]:
     from .budget import build_document
 
     files = csv_files(build_document(data))
+    files.update(values_files(data))
     folder = os.path.abspath(folder)
     parent = os.path.dirname(folder)
     if os.path.exists(folder) and not os.path.isdir(folder):
