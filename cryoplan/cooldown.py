@@ -290,8 +290,7 @@ def liquid_for_cooldown(
             f"{c.name} boils at {c.boiling_point:.2f} K; it cannot cool to {T_end:g} K"
         )
     m = material(material_id)
-    tb = c.boiling_point
-    vap = (lambda T: c.vapor_enthalpy(np.maximum(T, tb))) if gas_use else (lambda T: 0 * T)
+    vap = c.boiloff_gas_enthalpy if gas_use else (lambda T: 0 * T)
     kg = cryogen_mass_for_cooldown(
         m.specific_heat, mass_kg, T_start, T_end, c.latent_heat, vap, gas_use
     )

@@ -15,9 +15,6 @@ from . import heatloads as hl
 from .errors import InputError
 from .plan import Plan
 
-#: Stefan-Boltzmann constant, CODATA 2018 (exact in the SI since 2019), [W/(m^2 K^4)].
-_SIGMA = 5.670374419e-8
-
 SOURCE = (
     "Refrigerator efficiency trend against capacity: T. R. Strobridge, Cryogenic "
     "refrigerators - an updated survey, NBS Technical Note 655 (1974) (trend line from "
@@ -43,8 +40,6 @@ def _load_function(plan: Plan, names: list[str], t_lo: float, t_hi: float, stead
     Radiation (bare and MLI), supports and wires follow the stage temperatures; leads,
     necks and residual gas are held at their cold-state values (noted in the report).
     """
-    from .library import material
-
     index = {n: i for i, n in enumerate(names)}
     terms = []
     fixed = np.zeros(len(names))
@@ -79,9 +74,7 @@ def _load_function(plan: Plan, names: list[str], t_lo: float, t_hi: float, stead
                 def term(T, i=i, j=j, t_from=t_from, v=v, ec=ec, ew=ew):
                     tw = T[j] if j is not None else t_from
                     tc = T[i]
-                    sigma = _SIGMA
-                    denom = 1 / ec + v["area_ratio"] * (1 / ew - 1)
-                    return i, sigma * v["area"] * (tw**4 - tc**4) / denom
+                    return i, hl.gray_body_exchange(v["area"], tc, tw, ec, ew, v["area_ratio"])
 
             terms.append(term)
         elif load.kind in ("support", "wire"):
@@ -116,7 +109,6 @@ def _load_function(plan: Plan, names: list[str], t_lo: float, t_hi: float, stead
             )
             fixed[i] += power
             held.append(v.get("name", load.kind))
-    del material
 
     def load_fn(T):
         T = np.asarray(T, float)

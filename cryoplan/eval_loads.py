@@ -10,8 +10,6 @@ from __future__ import annotations
 import datetime as _dt
 import math
 
-import numpy as np
-
 from . import heatloads as hl
 from .errors import InputError
 from .plan import Plan
@@ -45,13 +43,12 @@ def _vapor_lead_per_ampere(cryogen_name: str, t_bath: float, t_warm: float) -> f
         from .fluids import cryogen
 
         fluid = cryogen(cryogen_name)
-        tb = fluid.boiling_point
         q, _ = hl.vapor_cooled_lead_optimum(
             1000.0,
             t_bath,
             t_warm,
             fluid.latent_heat,
-            lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)),
+            fluid.boiloff_gas_enthalpy,
         )
         _VAPOR_LEAD_CACHE[key] = float(q) / 1000.0
     return _VAPOR_LEAD_CACHE[key]
@@ -172,7 +169,7 @@ def load_contributions(
                 tb,
                 t_warm,
                 fluid.latent_heat,
-                lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)),
+                fluid.boiloff_gas_enthalpy,
                 other_load=other_on_bath,
             )
             return {load.stage: float(q) * v["count"]}, f"{m.id}, cooled by the boil-off gas"

@@ -33,7 +33,7 @@ SOURCE = (
 )
 
 
-def _vessels(plan: Plan, room, index: int, data: dict) -> list[dict]:
+def _vessels(plan: Plan, room, data: dict) -> list[dict]:
     """The vessels of a room: listed ones, plus the cryostat's baths where included."""
     from .fluids import cryogen
 
@@ -85,7 +85,6 @@ def _vessels(plan: Plan, room, index: int, data: dict) -> list[dict]:
                     "bath": True,
                 }
             )
-    del index
     return out
 
 
@@ -264,8 +263,8 @@ def analyse_rooms(plan: Plan, data: dict) -> None:
         return
     rooms_out = []
     worst_all = None
-    for index, room in enumerate(plan.rooms):
-        vessels = _vessels(plan, room, index, data)
+    for room in plan.rooms:
+        vessels = _vessels(plan, room, data)
         entry = _room_entry(room, vessels)
         worst = None if entry["lowest_percent"] is None else entry
         rooms_out.append(entry)

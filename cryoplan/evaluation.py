@@ -126,10 +126,7 @@ def _cooldown_steps(
             case
         ]
         tb = fluid.boiling_point
-
-        def vap(T, f=fluid, tb=tb):
-            return f.vapor_enthalpy(np.maximum(T, tb))
-
+        vap = fluid.boiloff_gas_enthalpy
         kg_total = 0.0
         cooled = []
         curve_T, curve_m = [], []
@@ -213,7 +210,7 @@ def _insert_litres(plan: Plan, factor: float) -> dict[str, float]:
             ins.start,
             tb,
             fluid.latent_heat,
-            lambda T, f=fluid, tb=tb: f.vapor_enthalpy(np.maximum(T, tb)),
+            fluid.boiloff_gas_enthalpy,
             ins.gas_use,
         )
         out[ins.into] = out.get(ins.into, 0.0) + kg / fluid.liquid_density * 1000 * ins.times

@@ -349,6 +349,15 @@ class Cryogen:
             self._interpolate(self._gas_x(temperature, "gas entropy"), self._s, self._ds),
         )
 
+    def boiloff_gas_enthalpy(self, temperature):
+        """:meth:`vapor_enthalpy` of gas leaving at ``temperature``, read as the boiling point
+        where it lies below it (the gas cannot leave colder than it boiled), [J/kg].
+
+        >>> round(float(cryogen("helium").boiloff_gas_enthalpy(1.0)), 6)
+        0.0
+        """
+        return self.vapor_enthalpy(np.maximum(temperature, self.boiling_point))
+
     def vapor_enthalpy(self, temperature):
         """Enthalpy of the boil-off gas warmed at constant pressure, from the real-fluid EOS.
 

@@ -205,12 +205,6 @@ class Plan:
                 return s
         raise KeyError(name)
 
-    def parts(self):
-        """(stage, part) pairs, warmest stage first."""
-        for s in self.stages:
-            for p in s.parts:
-                yield s, p
-
 
 # --- the schema -----------------------------------------------------------------------
 
@@ -452,11 +446,10 @@ def _known_material(reader: _Reader, name, key: str) -> str | None:
         return None
     try:
         return material(name).id
-    except UnknownNameError as exc:
+    except UnknownNameError:
         reader.errors.append(
             UnknownNameError("material", name, _material_ids(), **reader.where(key))
         )
-        del exc
         return None
 
 
@@ -832,11 +825,10 @@ def _supplies(reader: _Reader, raw_list) -> dict[str, Supply]:
         cry = reader.required(raw, "cryogen", key)
         cry = _known_cryogen(reader, cry, f"{key}.cryogen") if cry is not None else None
         dewars = []
-        for j, d in enumerate(reader.array(raw.get("dewars", []), f"{key}.dewars")):
+        for d in reader.array(raw.get("dewars", []), f"{key}.dewars"):
             v = reader.quantity({"d": d}, "d", key, "volume", positive=True)
             if v is not None:
                 dewars.append(v)
-            del j
         price, currency = None, ""
         if "price" in raw:
             try:
@@ -1069,14 +1061,13 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
             else:
                 v["rrr"] = float(r)
         via = []
-        for j, name in enumerate(reader.array(raw.get("via", []), f"{key}.via")):
+        for name in reader.array(raw.get("via", []), f"{key}.via"):
             if name not in temps:
                 reader.errors.append(
                     UnknownNameError("stage", str(name), list(temps), **reader.where(f"{key}.via"))
                 )
             else:
                 via.append(name)
-            del j
         v["via"] = via
         if kind == "neck":
             v["vapor_cooled"] = bool(raw.get("vapor_cooled", False))

@@ -246,12 +246,3 @@ def parse_fraction(value, low: float = 0.0, high: float = 1.0, **where) -> float
     if not (low <= value <= high):
         raise InputError("out of range", expected=expected, found=repr(value), **where)
     return value
-
-
-def format_quantity(value: float, unit: str, digits: int = 3) -> str:
-    """Format an SI value in ``unit`` with ``digits`` significant figures (views only).
-
-    >>> format_quantity(0.0042, "L")
-    '0.0042 L'
-    """
-    return f"{value:.{digits}g} {unit}"
