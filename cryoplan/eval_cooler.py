@@ -65,6 +65,7 @@ def _load_function(plan: Plan, names: list[str], t_lo: float, t_hi: float, stead
                             np.maximum(tw, tc + 1e-9),
                             v["layers"],
                             v["layer_density"] or 2000.0,
+                            degradation=v["degradation"],
                         ),
                         0.0,
                     )
