@@ -22,12 +22,12 @@ from pathlib import Path
 
 REPO = Path(__file__).resolve().parents[1]
 
-WARM = "import cryoplan.fluids as f; f.warm_cache()"
+WARM = "import cryoplan.data.fluids as f; f.warm_cache()"
 
 LOAD = """
 import sys
 import numpy as np
-import cryoplan.fluids as f
+import cryoplan.data.fluids as f
 T = np.linspace(100.0, 300.0, 1000)
 total = sum(float(f.cryogen(n).vapor_enthalpy(T).sum()) for n in f.cryogen_names())
 assert "CoolProp" not in sys.modules, "CoolProp was imported on the warm path"

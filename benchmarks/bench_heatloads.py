@@ -22,9 +22,9 @@ from _timing import best  # noqa: E402
 
 
 def main() -> None:
-    from cryoplan import heatloads as hl
-    from cryoplan.fluids import cryogen
-    from cryoplan.library import material
+    from cryoplan.data.fluids import cryogen
+    from cryoplan.data.materials import material
+    from cryoplan.physics import heatloads as hl
 
     copper, steel, he = material("copper"), material("stainless-304"), cryogen("helium")
     k_cu = copper.conductivity

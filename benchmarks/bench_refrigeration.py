@@ -32,7 +32,7 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))  # run from a source checkout
 
-from cryoplan.refrigeration import (
+from cryoplan.physics.refrigeration import (
     SECONDS_PER_DAY,
     CapacityMap,
     CooldownStage,
@@ -46,7 +46,7 @@ SIGMA = 5.670374419e-8  # Stefan-Boltzmann constant, W/(m^2 K^4) (CODATA 2018)
 def _heat_capacities():
     """Total heat capacity functions of the two stages, and where they came from."""
     try:
-        from cryoplan.library import material, material_ids
+        from cryoplan.data.materials import material, material_ids
 
         ids = set(material_ids())
 
@@ -63,7 +63,7 @@ def _heat_capacities():
         shield = lambda T: 30.0 * al.specific_heat(T)  # noqa: E731
         return cold, shield, f"material library ({cu.name}, {ss.name}, {al.name})"
     except Exception:
-        from cryoplan.solids import debye_specific_heat
+        from cryoplan.physics.solids import debye_specific_heat
 
         # theta_D [K], molar mass [kg/mol], gamma [J/(mol K^2)]; Kittel 2005 (from memory)
         def cu(T):

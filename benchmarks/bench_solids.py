@@ -19,7 +19,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
 from scipy import integrate  # noqa: E402
 
-from cryoplan import library  # noqa: E402
+from cryoplan.data import materials as library  # noqa: E402
 
 N_VECTOR = 100_000
 N_QUAD = 300  # quad is slow: time a sample of points and take the time per point

@@ -26,7 +26,7 @@ from pathlib import Path
 REPO = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(REPO))
 
-WARM = "import cryoplan.fluids as f; f.warm_cache()"
+WARM = "import cryoplan.data.fluids as f; f.warm_cache()"
 
 #: A fresh interpreter that opens the dashboard headless and reports the time of its first
 #: screen and of its first figures (seconds since the parent started it, on stdout).

@@ -22,12 +22,12 @@ __all__ = [
 ]
 
 _LAZY = {
-    "material_ids": "library",
-    "material": "library",
-    "cryogen": "fluids",
-    "liquid_for_cooldown": "cooldown",
-    "minimum_work": "cooldown",
-    "carnot_specific_power": "refrigeration",
+    "material_ids": "data.materials",
+    "material": "data.materials",
+    "cryogen": "data.fluids",
+    "liquid_for_cooldown": "evaluation.single",
+    "minimum_work": "evaluation.single",
+    "carnot_specific_power": "physics.refrigeration",
     "load_plan": "plan",
     "evaluate": "evaluation",
 }

@@ -37,8 +37,8 @@ def register(sub) -> None:
 def _evaluate_both(path_a: str, path_b: str) -> tuple[dict, dict]:
     """Both plans' results; a plan that fails to load or evaluate stops the comparison with
     its own message (both messages when both fail)."""
-    from ..evaluation import evaluate
-    from ..plan import load_plan
+    from ..evaluation.chain import evaluate
+    from ..plan.reader import load_plan
 
     results: list[dict | None] = []
     errors: list[CryoplanError] = []
@@ -136,7 +136,7 @@ def _verdict(comparison: dict) -> str:
 
 def _cautions(comparison: dict) -> list[str]:
     if any(r["key"].startswith("lowest_oxygen") for r in comparison["rows"]):
-        from ..safety import PLANNING_AID_NOTICE
+        from ..physics.oxygen import PLANNING_AID_NOTICE
 
         return [PLANNING_AID_NOTICE]
     return []
@@ -183,7 +183,7 @@ def render_comparison(comparison: dict, fmt: str = "text", width: int = 80) -> s
 
 
 def run(args) -> int:
-    from ..compare import compare_results
+    from ..evaluation.compare import compare_results
     from .print_budget import write_atomic
 
     if args.width < 60:

@@ -55,7 +55,7 @@ def create_from_template(path: str, *, confirm, template: str | None = None) -> 
     ``confirm(question) -> bool`` asks the user. The new file gets a first line saying
     where it came from; everything else is the demo, comments included.
     """
-    from ..plan import demo_plan_path
+    from ..plan.reader import demo_plan_path
     from .print_budget import write_atomic
 
     template = template or demo_plan_path()
@@ -86,7 +86,7 @@ def _ask(question: str) -> bool:
 
 
 def run(args) -> int:
-    from ..plan import demo_plan_path
+    from ..plan.reader import demo_plan_path
 
     plain = plain_wanted(args.plain)
     if args.plan is None:

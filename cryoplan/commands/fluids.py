@@ -63,7 +63,7 @@ def register(subparsers) -> None:
 
 
 def run(args) -> int:
-    from .. import fluids
+    from ..data import fluids
     from ..units import parse_quantity
 
     pressure = fluids.ATMOSPHERE

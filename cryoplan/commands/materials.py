@@ -64,7 +64,7 @@ def register(subparsers) -> None:
 
 
 def _warn_problems() -> None:
-    from ..library import library_problems
+    from ..data.materials import library_problems
 
     for problem in library_problems():
         for line in str(problem).splitlines():
@@ -72,7 +72,7 @@ def _warn_problems() -> None:
 
 
 def run_materials(args) -> int:
-    from ..library import all_materials
+    from ..data.materials import all_materials
 
     materials = all_materials()
     _warn_problems()
@@ -153,7 +153,7 @@ def _wrap(label: str, text: str) -> list[str]:
 
 
 def run_material(args) -> int:
-    from ..library import STANDARD_TEMPERATURES, material
+    from ..data.materials import STANDARD_TEMPERATURES, material
 
     m = material(args.id)
     if args.at:
@@ -212,8 +212,8 @@ def run_material(args) -> int:
 
 
 def run_fit(args) -> int:
-    from .. import fitting
-    from ..library import material, read_material_file
+    from ..data import fitting
+    from ..data.materials import material, read_material_file
 
     path = Path(args.file)
     if path.is_file():

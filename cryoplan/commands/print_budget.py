@@ -31,7 +31,7 @@ def register(sub) -> None:
 
 
 def plan_path(args) -> str:
-    from ..plan import demo_plan_path
+    from ..plan.reader import demo_plan_path
 
     if args.demo or not args.plan:
         if args.plan and args.demo:
@@ -73,8 +73,8 @@ def write_atomic(path: str, payload: bytes) -> None:
 
 
 def run(args) -> int:
-    from ..evaluation import evaluate
-    from ..plan import load_plan
+    from ..evaluation.chain import evaluate
+    from ..plan.reader import load_plan
     from ..report import render
 
     path = plan_path(args)

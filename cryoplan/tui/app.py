@@ -260,7 +260,7 @@ class CryoplanApp(App):
         try:
             import cryoplan
 
-            from ..plan import parse_plan
+            from ..plan.reader import parse_plan
             from ..report.budget import build_document
 
             if plan is None:
@@ -268,7 +268,7 @@ class CryoplanApp(App):
             data = cryoplan.evaluate(plan).to_dict()
             blocks = build_document(data)
             if first:
-                from ..library import material, material_ids
+                from ..data.materials import material, material_ids
 
                 materials = []
                 for mid in material_ids():
@@ -435,7 +435,7 @@ class CryoplanApp(App):
 
     @staticmethod
     def _room_caution() -> str:
-        from ..safety import PLANNING_AID_NOTICE
+        from ..physics.oxygen import PLANNING_AID_NOTICE
 
         return "Caution: " + PLANNING_AID_NOTICE + " Handling cautions: panel 6."
 

@@ -213,7 +213,7 @@ class PlanDocument:
 
     @classmethod
     def open(cls, path: str, validate: Callable | None = None) -> PlanDocument:
-        from ..plan import read_text
+        from ..plan.reader import read_text
 
         text = read_text(path)
         try:
@@ -249,7 +249,7 @@ class PlanDocument:
     def validate(self, text: str | None = None):
         """The validated plan of ``text`` (default: the current text)."""
         if self._validate is None:
-            from ..plan import parse_plan
+            from ..plan.reader import parse_plan
 
             self._validate = parse_plan
         return self._validate(self.text if text is None else text, self.path)

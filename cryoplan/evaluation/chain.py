@@ -7,15 +7,18 @@ it; they compute no physics.
 from __future__ import annotations
 
 import datetime as _dt
-import math
 from dataclasses import dataclass, field
 from typing import Any
 
 import numpy as np
 
-from . import __version__
-from .cooldown import BAND_NAMES, cumulative_cryogen_mass, state_budget
-from .plan import BOILING_POINT_SNAP_K, DEFAULT_TRANSFER_LOSS, DEFAULT_TRANSFER_LOSS_OTHER, Plan
+from .. import __version__
+from ..physics.cooldown import BAND_NAMES, cumulative_cryogen_mass, state_budget
+from ..plan import BOILING_POINT_SNAP_K, DEFAULT_TRANSFER_LOSS, DEFAULT_TRANSFER_LOSS_OTHER, Plan
+from .cooler import analyse_cooler
+from .loads import analyse_loads
+from .rooms import analyse_rooms
+from .supply import liquefaction, order
 
 CASES = ("low", "nominal", "high")
 
@@ -50,47 +53,6 @@ class Results:
         return self.data["summary"]
 
 
-def _transfer_loss(plan: Plan, cryogen: str, override: float | None) -> float:
-    if override is not None:
-        return override
-    supply = plan.supplies.get(cryogen)
-    if supply is not None and supply.transfer_loss is not None:
-        return supply.transfer_loss
-    return DEFAULT_TRANSFER_LOSS.get(cryogen, DEFAULT_TRANSFER_LOSS_OTHER)
-
-
-def choose_dewars(needed_L: float, sizes_L: list[float], heel_L: float) -> list[tuple[float, int]]:
-    """Whole dewars of the given sizes whose usable liquid (size - heel) covers ``needed_L``,
-    with the least liquid ordered (then the fewest dewars).
-
-    >>> choose_dewars(230.0, [100.0, 250.0], 10.0)
-    [(250.0, 1)]
-    >>> choose_dewars(300.0, [100.0, 250.0], 10.0)
-    [(100.0, 1), (250.0, 1)]
-    """
-    sizes = sorted(s for s in sizes_L if s - heel_L > 0)
-    if needed_L <= 0 or not sizes:
-        return []
-    need = int(math.ceil(needed_L - 1e-9))
-    usable = [max(1, int(math.floor(s - heel_L))) for s in sizes]
-    inf = (math.inf, math.inf)
-    best: list[tuple[float, float]] = [(0.0, 0.0)] + [inf] * need
-    choice = [-1] * (need + 1)
-    for x in range(1, need + 1):
-        for k, (s, u) in enumerate(zip(sizes, usable)):
-            prev = best[max(0, x - u)]
-            cand = (prev[0] + s, prev[1] + 1)
-            if cand < best[x]:
-                best[x], choice[x] = cand, k
-    counts = [0] * len(sizes)
-    x = need
-    while x > 0:
-        k = choice[x]
-        counts[k] += 1
-        x = max(0, x - usable[k])
-    return [(s, n) for s, n in zip(sizes, counts) if n]
-
-
 def _cached_specific_heat(m, cache: dict):
     """m.specific_heat, remembered per node set: the three cases share the same nodes."""
 
@@ -108,8 +70,8 @@ def _cooldown_steps(
 ) -> tuple[list[dict], dict[str, float], list]:
     """Litres per step for one case, the cumulative curves, and the parts' final temperatures."""
     c_cache = {} if c_cache is None else c_cache
-    from .fluids import cryogen
-    from .library import material
+    from ..data.fluids import cryogen
+    from ..data.materials import material
 
     factor = {"low": 1 - plan.mass_margin, "nominal": 1.0, "high": 1 + plan.mass_margin}[case]
     temps = {
@@ -195,9 +157,9 @@ def _cooldown_steps(
 
 
 def _insert_litres(plan: Plan, factor: float) -> dict[str, float]:
-    from .cooldown import cryogen_mass_for_cooldown
-    from .fluids import cryogen
-    from .library import material
+    from ..data.fluids import cryogen
+    from ..data.materials import material
+    from ..physics.cooldown import cryogen_mass_for_cooldown
 
     out: dict[str, float] = {}
     for ins in plan.inserts:
@@ -217,80 +179,8 @@ def _insert_litres(plan: Plan, factor: float) -> dict[str, float]:
     return out
 
 
-def _order(
-    plan: Plan, cooldown_L: dict[str, float], inserts_L: dict[str, float], steps: list[dict]
-) -> dict[str, dict]:
-    """What to order per cryogen: cooldown + bath fill + inserts + transfer losses + heels."""
-    cryogens = set(cooldown_L) | set(inserts_L) | {b.cryogen for b in plan.baths}
-    order = {}
-    for cry in sorted(cryogens):
-        transferred = 0.0
-        delivered = 0.0
-        for step, s in zip(plan.cooldown.steps, steps):
-            if step.cryogen == cry:
-                loss = _transfer_loss(plan, cry, step.transfer_loss)
-                delivered += s["liquid_L"]
-                transferred += s["liquid_L"] / (1 - loss)
-        fill = 0.0
-        for bath in plan.baths:
-            if bath.cryogen == cry:
-                loss = _transfer_loss(plan, cry, bath.transfer_loss)
-                fill += bath.volume * 1000
-                transferred += bath.volume * 1000 / (1 - loss)
-        ins = inserts_L.get(cry, 0.0)
-        transferred += ins / (1 - _transfer_loss(plan, cry, None))
-        delivered += fill + ins
-        supply = plan.supplies.get(cry)
-        heel = supply.heel * 1000 if supply else 0.0
-        dewars = (
-            choose_dewars(transferred, [d * 1000 for d in supply.dewars], heel)
-            if (supply and supply.dewars)
-            else []
-        )
-        n_dewars = sum(n for _, n in dewars)
-        ordered = sum(s * n for s, n in dewars) if dewars else transferred + heel * 0
-        price = supply.price if supply and supply.price is not None else None
-        entry = {
-            "cooldown_L": cooldown_L.get(cry, 0.0),
-            "bath_fill_L": fill,
-            "inserts_L": ins,
-            "transfer_loss_L": transferred - delivered,
-            "needed_L": transferred,
-            "heel_L": heel * n_dewars,
-            "dewars": [{"size_L": s, "count": n} for s, n in dewars],
-            "order_L": ordered,
-            "spare_L": ordered - transferred - heel * n_dewars if dewars else 0.0,
-            "cost": None if price is None else ordered / 1000 * price,
-            "currency": supply.currency if supply else "",
-        }
-        order[cry] = entry
-    return order
-
-
-def _liquefaction(plan: Plan, order: dict[str, dict]) -> dict[str, dict]:
-    from .fluids import cryogen
-
-    out = {}
-    for cry, entry in order.items():
-        fluid = cryogen(cry)
-        kg = entry["order_L"] / 1000 * fluid.liquid_density
-        ideal = fluid.ideal_liquefaction_work(plan.ambient) * kg
-        supply = plan.supplies.get(cry)
-        real = None
-        if supply and supply.liquefier_energy is not None:
-            real = supply.liquefier_energy * entry["order_L"] / 1000
-        out[cry] = {
-            "ideal_J": ideal,
-            "ideal_kWh": ideal / 3.6e6,
-            "real_J": real,
-            "real_kWh": None if real is None else real / 3.6e6,
-            "percent_of_ideal": None if not real else 100 * ideal / real,
-        }
-    return out
-
-
 def _budget(plan: Plan) -> dict[str, Any]:
-    from .library import material
+    from ..data.materials import material
 
     parts, stages = [], []
     total = {k: np.zeros(len(BAND_NAMES)) for k in ("heat", "entropy", "work")}
@@ -352,7 +242,7 @@ def evaluate(plan: Plan) -> Results:
     Results
         ``results.to_dict()`` starts with the ``summary`` object of DESIGN.md.
     """
-    from .library import material
+    from ..data.materials import material
 
     data: dict[str, Any] = {"summary": {}}
     data["plan"] = {
@@ -392,7 +282,7 @@ def evaluate(plan: Plan) -> Results:
         cases[case] = {
             "steps": steps,
             "cooldown_L": per_cryogen,
-            "order": _order(plan, per_cryogen, inserts, steps),
+            "order": order(plan, per_cryogen, inserts, steps),
         }
         if case == "nominal":
             data["cumulative_liquid"] = curves
@@ -425,7 +315,7 @@ def evaluate(plan: Plan) -> Results:
         {"step": s["step"], **{c: cases[c]["steps"][i]["liquid_L"] for c in CASES}}
         for i, s in enumerate(cases["nominal"]["steps"])
     ]
-    data["liquefaction"] = _liquefaction(plan, data["order"])
+    data["liquefaction"] = liquefaction(plan, data["order"])
     total_work = float(sum(data["budget"]["total"]["work_J"]))
 
     summary = data["summary"]
@@ -442,17 +332,10 @@ def evaluate(plan: Plan) -> Results:
     )
     summary["heat_J"] = float(sum(data["budget"]["total"]["heat_J"]))
 
-    import importlib
-
-    for name in _ANALYSES:
-        module, _, func = name.partition(":")
-        try:
-            mod = importlib.import_module(f".{module}", __package__)
-        except ModuleNotFoundError as exc:
-            if exc.name and exc.name.endswith(module):
-                continue  # an analysis not in this build
-            raise
-        getattr(mod, func)(plan, data)
+    # the later steps, in order: loads first (the room checks use the baths' boil-off)
+    analyse_loads(plan, data)
+    analyse_cooler(plan, data)
+    analyse_rooms(plan, data)
 
     sources = list(METHOD_SOURCES.values())
     for s in plan.stages:
@@ -494,12 +377,3 @@ def _assumptions(plan: Plan) -> list[str]:
                 "(common practice; set transfer_loss in [[supply]] for your site)."
             )
     return out
-
-
-#: Further analyses, run in this order: "module:function", function(plan, data) -> None.
-#: Loads come first: the room checks use the baths' static boil-off.
-_ANALYSES: list[str] = [
-    "eval_loads:analyse_loads",
-    "eval_cooler:analyse_cooler",
-    "eval_rooms:analyse_rooms",
-]

@@ -1,4 +1,4 @@
-"""Tests of cryoplan.fluids: cryogen properties from CoolProp and their cache.
+"""Tests of cryoplan.data.fluids: cryogen properties from CoolProp and their cache.
 
 Every expected number names its source beside it; "from memory" marks a value recalled
 from the named table, "common practice" a rule of thumb of the trade. Every tolerance
@@ -20,14 +20,14 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.constants import R
 
-from cryoplan import fluids
 from cryoplan.cli import main
+from cryoplan.data import fluids
 from cryoplan.errors import InputError, TemperatureError, UnknownNameError
 
 CP = pytest.importorskip("CoolProp.CoolProp")
 
 ATM = 101325.0  # Pa, the standard atmosphere (a defined value)
-REPO = Path(__file__).resolve().parents[1]
+REPO = Path(__file__).resolve().parents[2]
 
 
 @pytest.fixture(scope="module", autouse=True)
@@ -498,7 +498,7 @@ def test_clear_and_warm_cache(fresh_cache):
 
 FAST_PATH = """
 import sys, time
-import cryoplan.fluids as f
+import cryoplan.data.fluids as f
 c = f.cryogen("helium")
 c.vapor_enthalpy(100.0)
 for n in f.cryogen_names():

@@ -1,4 +1,4 @@
-"""Tests of cryoplan.solids: the heat-capacity and conductivity models and the tables.
+"""Tests of cryoplan.physics.solids: the heat-capacity and conductivity models and the tables.
 
 Every expected number names its source; every tolerance says why it is that wide.
 """
@@ -15,14 +15,14 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy import integrate
 
-from cryoplan import solids
+from cryoplan.physics import solids
 
 if sys.version_info >= (3, 11):
     import tomllib
 else:  # pragma: no cover
     import tomli as tomllib
 
-DATA = Path(__file__).parent / "data"
+DATA = Path(__file__).resolve().parents[1] / "reference"
 R = solids.R
 
 
@@ -213,7 +213,7 @@ HUST_LANKFORD_COPPER = dict(
 def test_hust_lankford_copper_against_nist_fits(rrr):
     # Two independent representations of copper's conductivity: Hust & Lankford, NBSIR
     # 84-3007 (1984) (parameters from memory, as in materials/copper.toml) and the NIST
-    # OFHC copper fits (tests/data, checked against the NIST page). 8 %: NIST states
+    # OFHC copper fits (tests/reference, checked against the NIST page). 8 %: NIST states
     # 1-2 % fit error, and the two disagree most near the peak (20-40 K) where k
     # depends steeply on RRR.
     nist = tomllib.loads((DATA / "nist_ofhc_copper_conductivity.toml").read_text())

@@ -7,7 +7,7 @@ import pytest
 from scipy import integrate
 
 import cryoplan
-from cryoplan.cooldown import band_split, cryogen_mass_for_cooldown, state_budget
+from cryoplan.physics.cooldown import band_split, cryogen_mass_for_cooldown, state_budget
 
 # Litres of liquid to cool 1 kg of metal: the classic handbook table reproduced in
 # J. W. Ekin, "Experimental Techniques for Low-Temperature Measurements" (Oxford, 2006),

@@ -1,4 +1,4 @@
-"""Tests of cryoplan.safety: well-mixed room models, release cases, verdicts and cautions.
+"""Tests of cryoplan.physics.oxygen: well-mixed room models, release cases, verdicts and cautions.
 
 Hand calculations are written out beside each expected number, with the published formula
 they come from. Abbreviations used below:
@@ -19,8 +19,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from cryoplan import safety as s
 from cryoplan.errors import InputError, UnknownNameError
+from cryoplan.physics import oxygen as s
 
 AIR = 20.9
 Q_2ACH = 200.0 / 3600.0  # 2 air changes per hour in a 100 m^3 room [m^3/s]

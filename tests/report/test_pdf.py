@@ -110,7 +110,7 @@ def test_every_source_named(example):
 
 
 def test_cautions_printed(example):
-    from cryoplan.safety import CAUTIONS
+    from cryoplan.physics.oxygen import CAUTIONS
 
     text = _squash(example["text"])
     for caution in CAUTIONS:

@@ -14,16 +14,16 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from cryoplan import library
+from cryoplan.data import materials as library
 
 if sys.version_info >= (3, 11):
     import tomllib
 else:  # pragma: no cover
     import tomli as tomllib
 
-REPO = Path(__file__).resolve().parents[1]
+REPO = Path(__file__).resolve().parents[2]
 FILES = sorted((REPO / "materials").glob("*.toml"))
-DATA = Path(__file__).parent / "data"
+DATA = Path(__file__).resolve().parents[1] / "reference"
 
 
 @pytest.fixture(scope="module", autouse=True)
@@ -188,9 +188,9 @@ def test_elements_against_mendeleev(mid, mendeleev_data):
 
 def test_copper_conductivity_against_nist_rrr100():
     # materials/copper.toml (Hust & Lankford 1984, default RRR 100) against the NIST
-    # OFHC copper fit for RRR 100 (tests/data, checked against the NIST page); 8 %: the
+    # OFHC copper fit for RRR 100 (tests/reference, checked against the NIST page); 8 %: the
     # two representations differ most near the 20-40 K peak
-    from cryoplan import solids
+    from cryoplan.physics import solids
 
     nist = tomllib.loads((DATA / "nist_ofhc_copper_conductivity.toml").read_text())
     t = np.geomspace(4.0, 300.0, 30)

@@ -11,8 +11,8 @@ import math
 
 import numpy as np
 
-from . import safety
-from .plan import Plan
+from ..physics import oxygen as safety
+from ..plan.reader import Plan
 
 #: Normal boil-off of a storage dewar when the plan gives none: about 1 % of its contents
 #: a day for helium and nitrogen transport dewars (common practice; makers' figures range
@@ -35,7 +35,7 @@ SOURCE = (
 
 def _vessels(plan: Plan, room, data: dict) -> list[dict]:
     """The vessels of a room: listed ones, plus the cryostat's baths where included."""
-    from .fluids import cryogen
+    from ..data.fluids import cryogen
 
     out = []
     static = data.get("loads", {}).get("baths", [])

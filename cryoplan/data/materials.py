@@ -28,8 +28,9 @@ from pathlib import Path
 
 import numpy as np
 
-from . import solids
-from .errors import CryoplanError, InputError, TemperatureError, UnknownNameError
+from ..errors import CryoplanError, InputError, TemperatureError, UnknownNameError
+from ..physics import solids
+from ..resources import bundled as _bundled_folder
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -170,7 +171,7 @@ def unit_factor(unit: str, kind: str, where: dict) -> tuple[float, bool]:
                 found=repr(unit),
                 **where,
             )
-    from .units import registry
+    from ..units import registry
 
     ureg = registry()
     try:
@@ -1109,11 +1110,7 @@ def _read(
 
 def bundled_folder() -> Path | None:
     """The folder of the materials shipped with cryoplan (installed or source checkout)."""
-    here = Path(__file__).resolve().parent
-    for candidate in (here / "materials", here.parent / "materials"):
-        if candidate.is_dir():
-            return candidate
-    return None
+    return _bundled_folder("materials")
 
 
 def user_folder() -> Path:

@@ -1,4 +1,4 @@
-"""Tests of cryoplan.heatloads against hand calculations, closed forms and published figures.
+"""Tests of cryoplan.physics.heatloads against hand calculations, closed forms and published figures.
 
 Each expected number names its source beside it; "from memory" marks a recalled value,
 "common practice" a rule of thumb of the trade. Every tolerance says why it is that wide.
@@ -14,8 +14,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from cryoplan import heatloads as hl
 from cryoplan.errors import InputError, TemperatureError, UnknownNameError
+from cryoplan.physics import heatloads as hl
 
 # Stefan-Boltzmann constant from its definition 2 pi^5 k^4 / (15 h^3 c^2) with the exact SI
 # (2019) values of k, h and c; CODATA 2018 quotes 5.670374419e-8 W/(m^2 K^4)
@@ -264,8 +264,8 @@ def test_wire_load_is_conduction_through_the_wire_section():
 
 
 def library_material(material_id):
-    """The material from cryoplan.library; skipped only while that library lacks it."""
-    library = pytest.importorskip("cryoplan.library")
+    """The material from cryoplan.data.materials; skipped only while that library lacks it."""
+    library = pytest.importorskip("cryoplan.data.materials")
     try:
         return library.material(material_id)
     except UnknownNameError:
@@ -293,7 +293,7 @@ def test_glass_epoxy_conductivity_integral():
     # 1.12 W/cm across the cloth (normal) and 1.63 W/cm along it (warp); Ekin 2006 tabulates
     # about 1.67 W/cm (from memory). Either direction, within 12 % of its figure: the spread
     # of laminates.
-    library = pytest.importorskip("cryoplan.library")
+    library = pytest.importorskip("cryoplan.data.materials")
     ids = [i for i in library.material_ids() if "g-10" in i or "g10" in i]
     if not ids:
         pytest.skip("no G-10 material yet in the library")

@@ -5,7 +5,7 @@ evaluation worker to report back, and reads the widgets. Physics is not checked 
 analyses have their own tests); what is checked is that the dashboard shows the analyses'
 figures, follows edits, refuses bad entries, and never loses the user's file.
 
-Snapshots of the screen text live in tests/snapshots/; after reviewing a change by eye,
+Snapshots of the screen text live in tests/tui/snapshots/; after reviewing a change by eye,
 rewrite them with ``CRYOPLAN_UPDATE_SNAPSHOTS=1 pytest tests/test_tui.py``.
 """
 
@@ -726,7 +726,7 @@ def test_smoke_in_a_real_terminal(tmp_path):
     import sys
 
     session = f"cryoplan-test-{os.getpid()}"
-    env = dict(os.environ, PYTHONPATH=os.path.dirname(os.path.dirname(__file__)))
+    env = dict(os.environ, PYTHONPATH=os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__)))))
     command = f"{sys.executable} -m cryoplan open --plain; sleep 5"
 
     def tmux(*args):

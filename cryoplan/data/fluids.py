@@ -42,7 +42,7 @@ from pathlib import Path
 
 import numpy as np
 
-from .errors import CryoplanError, InputError, TemperatureError, UnknownNameError
+from ..errors import CryoplanError, InputError, TemperatureError, UnknownNameError
 
 #: Standard atmosphere [Pa] (a defined value).
 ATMOSPHERE = 101325.0

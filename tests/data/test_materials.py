@@ -1,4 +1,4 @@
-"""Tests of cryoplan.library (and its commands): finding, loading and checking materials.
+"""Tests of cryoplan.data.materials (and its commands): finding, loading and checking materials.
 
 Every expected number names its source; every tolerance says why it is that wide.
 """
@@ -19,11 +19,11 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy import integrate
 
-from cryoplan import library
 from cryoplan.cli import main
+from cryoplan.data import materials as library
 from cryoplan.errors import CryoplanError, InputError, TemperatureError, UnknownNameError
 
-REPO = Path(__file__).resolve().parents[1]
+REPO = Path(__file__).resolve().parents[2]
 BUNDLED = REPO / "materials"
 
 
@@ -486,7 +486,7 @@ def test_installed_package_finds_every_material(tmp_path):
     elsewhere = tmp_path / "elsewhere"
     elsewhere.mkdir()
     code = (
-        "import json, cryoplan.library as L; "
+        "import json, cryoplan.data.materials as L; "
         "print(json.dumps([L.material_ids(), L.bundled_folder().as_posix()]))"
     )
     out = subprocess.run(
@@ -505,7 +505,7 @@ def test_installed_package_finds_every_material(tmp_path):
 def test_extra_terms_and_tabulated_model_from_files(tmp_path, monkeypatch):
     # an Einstein term adds atoms x 3R x^2 e^x/(e^x-1)^2 / M (Einstein 1907), a Schottky
     # term centres x its two-level curve / M: exact arithmetic against solids
-    from cryoplan import solids
+    from cryoplan.physics import solids
 
     base = write(tmp_path, "plain")
     extra = base.read_text().replace(

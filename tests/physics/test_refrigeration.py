@@ -1,4 +1,4 @@
-"""Tests of cryoplan.refrigeration: Carnot work, survey trend, capacity curves and maps,
+"""Tests of cryoplan.physics.refrigeration: Carnot work, survey trend, capacity curves and maps,
 cooldown-time integration, steady state, and the refusals of bad input.
 
 Every expected number names its source beside it. Analytic results are derived in the
@@ -17,7 +17,7 @@ from hypothesis import strategies as st
 
 import cryoplan
 from cryoplan.errors import InputError, TemperatureError
-from cryoplan.refrigeration import (
+from cryoplan.physics.refrigeration import (
     STROBRIDGE_TREND_POINTS,
     SURVEY_SCATTER_FACTOR,
     CapacityCurve,
@@ -320,7 +320,7 @@ def test_constant_capacity_debye_plus_linear_heat_capacity():
 def test_constant_capacity_copper_from_the_library():
     # t = m [H(T1) - H(T2)] / Q with the library's own copper enthalpy (DESIGN.md
     # contract). 0.5 %: the issue's bar; the table of c(T) adds about 1e-4.
-    library = pytest.importorskip("cryoplan.library")
+    library = pytest.importorskip("cryoplan.data.materials")
     try:
         cu = library.material("copper")
     except Exception as exc:  # the library exists but has no copper yet

@@ -11,9 +11,9 @@ import math
 
 import numpy as np
 
-from . import heatloads as hl
-from .errors import InputError
-from .plan import Plan
+from ..errors import InputError
+from ..physics import heatloads as hl
+from ..plan.reader import Plan
 
 SOURCE = (
     "Refrigerator efficiency trend against capacity: T. R. Strobridge, Cryogenic "
@@ -24,7 +24,7 @@ SOURCE = (
 
 def _k_table(material_id: str, rrr, t_lo: float, t_hi: float):
     """Running conductivity integral K(T) = int_{t_lo}^{T} k dT on a log grid, for np.interp."""
-    from .library import material
+    from ..data.materials import material
 
     m = material(material_id)
     grid = np.geomspace(t_lo, t_hi, 200)
@@ -130,9 +130,9 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
     cooler = plan.cooler
     if cooler is None:
         return
-    from . import refrigeration as rf
-    from .eval_loads import stage_loads
-    from .library import material
+    from ..data.materials import material
+    from ..physics import refrigeration as rf
+    from .loads import stage_loads
 
     names = [s.name for s in plan.stages]
     targets = np.array([s.temperature for s in plan.stages])
@@ -280,7 +280,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
         result["real_input_W"] = carnot_total / (cooler.percent_carnot / 100)
         result["percent_of_carnot"] = cooler.percent_carnot
     if cold:
-        from .library import material as mat
+        from ..data.materials import material as mat
 
         def heat_capacity_of(stage):
             parts = [(mat(p.material), p.mass) for p in stage.parts]

@@ -157,7 +157,7 @@ def test_bad_loads_and_baths(old, new, key, words):
 
 
 def test_support_of_a_material_without_conductivity_is_refused():
-    from cryoplan.library import material, material_ids
+    from cryoplan.data.materials import material, material_ids
 
     without = [i for i in material_ids() if not material(i).has_conductivity]
     if not without:

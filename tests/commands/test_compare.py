@@ -11,8 +11,8 @@ import pytest
 
 from cryoplan.cli import main
 from cryoplan.commands.compare import render_comparison
-from cryoplan.compare import compare_results, compare_summaries, flatten, label_and_unit
 from cryoplan.evaluation import evaluate
+from cryoplan.evaluation.compare import compare_results, compare_summaries, flatten, label_and_unit
 from cryoplan.plan import demo_plan_path, load_plan
 
 

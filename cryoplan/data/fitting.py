@@ -20,9 +20,9 @@ from pathlib import Path
 
 import numpy as np
 
-from . import solids
-from .errors import InputError
-from .library import Material, read_material_file
+from ..errors import InputError
+from ..physics import solids
+from .materials import Material, read_material_file
 
 
 @dataclass
@@ -223,7 +223,7 @@ def fit_file(path, knot_count: int | None = None, material: Material | None = No
     """Read a material file and fit it (a mixture needs its components: pass ``material``)."""
     m = material if material is not None else read_material_file(Path(path), allow_unfitted=True)
     if m.model == "mixture" and m._c is None:
-        from .library import material as lookup
+        from .materials import material as lookup
 
         m = lookup(m.id)
     return fit_material(m, knot_count)

@@ -10,9 +10,9 @@ from __future__ import annotations
 import datetime as _dt
 import math
 
-from . import heatloads as hl
-from .errors import InputError
-from .plan import Plan
+from ..errors import InputError
+from ..physics import heatloads as hl
+from ..plan.reader import Plan
 
 SOURCES = [
     "Radiation between gray surfaces: e.g. R. F. Barron, Cryogenic Systems, 2nd ed. (1985), "
@@ -40,7 +40,7 @@ def _vapor_lead_per_ampere(cryogen_name: str, t_bath: float, t_warm: float) -> f
         return hl.VAPOR_COOLED_LEAD_HEAT_PER_AMPERE
     key = (cryogen_name, round(t_bath, 3), round(t_warm, 3))
     if key not in _VAPOR_LEAD_CACHE:
-        from .fluids import cryogen
+        from ..data.fluids import cryogen
 
         fluid = cryogen(cryogen_name)
         q, _ = hl.vapor_cooled_lead_optimum(
@@ -72,8 +72,8 @@ def load_contributions(
 
     Returns the contributions by stage and a short detail text for the report.
     """
-    from .fluids import cryogen
-    from .library import material
+    from ..data.fluids import cryogen
+    from ..data.materials import material
 
     v = load.values
     t_cold = temps[load.stage]
@@ -221,8 +221,8 @@ def analyse_loads(plan: Plan, data: dict) -> None:
     """Evaluation hook: loads by stage and cause, boil-off, hold time, calendar, month."""
     if not plan.loads and not plan.baths:
         return
-    from .evaluation import choose_dewars
-    from .fluids import cryogen
+    from ..data.fluids import cryogen
+    from .supply import choose_dewars
 
     temps = _stage_temps(plan)
     items, totals = stage_loads(plan, temps)
@@ -261,7 +261,7 @@ def analyse_loads(plan: Plan, data: dict) -> None:
             ]
         boiled = rate * horizon * 1000.0  # L
         supply = plan.supplies.get(b.cryogen)
-        from .evaluation import _transfer_loss
+        from .supply import transfer_loss as _transfer_loss
 
         loss = _transfer_loss(plan, b.cryogen, b.transfer_loss)
         transferred = boiled / (1 - loss)

@@ -14,9 +14,9 @@ import os
 from dataclasses import dataclass, field
 from typing import Any
 
-from . import units
-from .errors import CryoplanError, InputError, InputErrors, UnknownNameError, closest
-from .tomlpos import LineFinder
+from .. import units
+from ..errors import CryoplanError, InputError, InputErrors, UnknownNameError, closest
+from .positions import LineFinder
 
 try:  # Python 3.11+
     import tomllib as _toml
@@ -437,7 +437,7 @@ class _Reader:
 
 
 def _known_material(reader: _Reader, name, key: str) -> str | None:
-    from .library import material
+    from ..data.materials import material
 
     if not isinstance(name, str):
         reader.error(
@@ -454,13 +454,13 @@ def _known_material(reader: _Reader, name, key: str) -> str | None:
 
 
 def _material_ids():
-    from .library import material_ids
+    from ..data.materials import material_ids
 
     return material_ids()
 
 
 def _known_cryogen(reader: _Reader, name, key: str) -> str | None:
-    from .fluids import cryogen_names
+    from ..data.fluids import cryogen_names
 
     names = cryogen_names()
     if isinstance(name, str) and name.strip().lower() in names:
@@ -498,7 +498,7 @@ def _checked_boiling_point(reader, cryogen: str, pressure: float, key: str) -> f
 
 
 def _boiling_point(cryogen: str, pressure: float) -> float:
-    from .fluids import cryogen as _cryogen
+    from ..data.fluids import cryogen as _cryogen
 
     return _cryogen(cryogen, pressure=pressure).boiling_point
 
@@ -530,7 +530,7 @@ def _part_mass(reader: _Reader, raw: dict, key: str, material_id: str | None) ->
         return None if mass is None else mass * count
     density = None
     if material_id is not None:
-        from .library import material
+        from ..data.materials import material
 
         density = material(material_id).density
     if "volume" in raw:
@@ -647,7 +647,7 @@ def _stages(reader: _Reader, raw_list, ambient: float) -> list[Stage]:
 
 
 def _material_range_check(reader: _Reader, stages: list[Stage], start: float) -> None:
-    from .library import material
+    from ..data.materials import material
 
     for stage in stages:
         for part in stage.parts:
@@ -925,7 +925,7 @@ def _loads(reader: _Reader, raw_list, stages: list[Stage]) -> list[Load]:
 
 def _surface_emissivities(reader: _Reader, value, key: str) -> list[float]:
     """[cold, warm] emissivities from the materials database's values for the surfaces."""
-    from .library import material
+    from ..data.materials import material
 
     if not (isinstance(value, list) and len(value) == 2):
         reader.error(
@@ -1015,7 +1015,7 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         mat = reader.required(raw, "material", key)
         mat_id = _known_material(reader, mat, f"{key}.material") if mat is not None else None
         if mat_id is not None:
-            from .library import material
+            from ..data.materials import material
 
             if not material(mat_id).has_conductivity:
                 reader.error(
@@ -1093,7 +1093,7 @@ def _load_values(reader: _Reader, raw, key, kind, temps, stage_t) -> dict | None
         v["pressure"] = reader.quantity(
             raw, "pressure", key, "pressure", required=True, positive=True
         )
-        from .heatloads import GASES
+        from ..physics.heatloads import GASES
 
         v["gas"] = raw.get("gas", "helium")
         if v["gas"] not in GASES:
@@ -1419,7 +1419,7 @@ def _rooms(reader: _Reader, raw) -> list[Room]:
         quench = bool(rraw.get("quench", False))
         qt = reader.quantity(rraw, "quench_time", key, "time", default=30.0, positive=True)
         qf = reader.fraction(rraw, "quench_fraction", key, 1.0)
-        from .safety import DEFAULT_SUDDEN_MODEL, SUDDEN_RELEASE_MODELS
+        from ..physics.oxygen import DEFAULT_SUDDEN_MODEL, SUDDEN_RELEASE_MODELS
 
         model = rraw.get("sudden_model", DEFAULT_SUDDEN_MODEL)
         if model not in SUDDEN_RELEASE_MODELS:
@@ -1596,8 +1596,9 @@ def demo_plan_path() -> str:
 
 
 def examples_dir() -> str:
-    here = os.path.dirname(os.path.abspath(__file__))
-    for candidate in (os.path.join(here, "examples"), os.path.join(here, "..", "examples")):
-        if os.path.isdir(candidate):
-            return os.path.normpath(candidate)
+    from ..resources import bundled
+
+    folder = bundled("examples")
+    if folder is not None:
+        return str(folder)
     raise CryoplanError("the bundled examples are missing from this installation")
