@@ -29,7 +29,13 @@ def register(sub) -> None:
     p.add_argument(
         "--format", "-f", default="text", choices=FORMATS, help="output format (default: text)"
     )
-    p.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
+    p.add_argument(
+        "-o",
+        "--output",
+        metavar="FILE",
+        help="write to FILE instead of the screen (kept as FILE.bak if it exists; a link "
+        "is followed, a device or pipe written through; a plan or a folder is refused)",
+    )
     p.add_argument("--width", type=int, default=80, help="text width in columns (default 80)")
     p.set_defaults(func=run)
 
@@ -184,7 +190,7 @@ def render_comparison(comparison: dict, fmt: str = "text", width: int = 80) -> s
 
 def run(args) -> int:
     from ..evaluation.compare import compare_results
-    from .print_budget import write_atomic
+    from ..files import check_output_path, write_file
 
     if args.width < 60:
         raise InputError(
@@ -193,10 +199,12 @@ def run(args) -> int:
             expected="60 columns or more",
             found=str(args.width),
         )
+    if args.output:  # checked before any work is done
+        check_output_path(args.output, inputs=[args.plan_a, args.plan_b], key="-o")
     data_a, data_b = _evaluate_both(args.plan_a, args.plan_b)
     text = render_comparison(compare_results(data_a, data_b), args.format, width=args.width)
     if args.output:
-        write_atomic(args.output, text.encode())
+        write_file(args.output, text)
     else:
         sys.stdout.write(text)
     return 0

@@ -55,24 +55,17 @@ def create_from_template(path: str, *, confirm, template: str | None = None) -> 
     ``confirm(question) -> bool`` asks the user. The new file gets a first line saying
     where it came from; everything else is the demo, comments included.
     """
+    from ..files import check_output_path, write_file
     from ..plan.reader import demo_plan_path
-    from .print_budget import write_atomic
 
     template = template or demo_plan_path()
-    folder = os.path.dirname(os.path.abspath(path))
-    if not os.path.isdir(folder):
-        raise InputError(
-            "cannot create the plan",
-            file=path,
-            expected="a file in an existing folder",
-            found="no such folder",
-        )
+    check_output_path(path, inputs=[template], what="the plan")
     if not confirm(f"{path} does not exist. Create it from the demo plan? [y/N] "):
         return False
     with open(template, encoding="utf-8") as fh:
         text = fh.read()
     head = "# Made from the cryoplan demo plan; replace the demo figures with your own.\n"
-    write_atomic(path, (head + text).encode())
+    write_file(path, head + text, what="the plan")
     return True
 
 

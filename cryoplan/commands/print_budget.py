@@ -2,11 +2,10 @@
 
 from __future__ import annotations
 
-import os
 import sys
-import tempfile
 
 from ..errors import InputError
+from ..files import check_output_path, resolve_target, write_file
 
 FORMATS = ("text", "markdown", "json", "pdf", "csv")
 
@@ -23,10 +22,22 @@ def register(sub) -> None:
     p.add_argument(
         "--format", "-f", default="text", choices=FORMATS, help="output format (default: text)"
     )
-    p.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
+    p.add_argument(
+        "-o",
+        "--output",
+        metavar="FILE",
+        help="write to FILE instead of the screen (a folder for csv). An existing FILE is "
+        "kept as FILE.bak; a symbolic link is followed (the file it points to is replaced, "
+        "the link stays); a device or pipe such as /dev/stdout is written through; the "
+        "plan itself and a folder are refused",
+    )
     p.add_argument("--width", type=int, default=80, help="text width in columns (default 80)")
     p.add_argument("--paper", default="a4", help="paper size for PDF: a4 or letter")
-    p.add_argument("--curve", metavar="FILE", help="also write the cooldown curve T(t) as CSV")
+    p.add_argument(
+        "--curve",
+        metavar="FILE",
+        help="also write the cooldown curve T(t) as CSV (same rules as -o)",
+    )
     p.set_defaults(func=run)
 
 
@@ -42,36 +53,6 @@ def plan_path(args) -> str:
     return args.plan
 
 
-def write_atomic(path: str, payload: bytes) -> None:
-    """Write a file whole or not at all: a temporary file in the same folder, then a rename."""
-    folder = os.path.dirname(os.path.abspath(path)) or "."
-    if not os.path.isdir(folder):
-        raise InputError(
-            "cannot write the output",
-            file=path,
-            expected="a file in an existing folder",
-            found="no such folder",
-        )
-    try:
-        fd, tmp = tempfile.mkstemp(prefix=".cryoplan-", dir=folder)
-    except OSError as exc:
-        raise InputError(f"cannot write the output ({exc.strerror})", file=path) from None
-    try:
-        with os.fdopen(fd, "wb") as fh:
-            fh.write(payload)
-        # mkstemp makes the file private; give it the usual permissions of a new file
-        umask = os.umask(0)
-        os.umask(umask)
-        os.chmod(tmp, 0o666 & ~umask)
-        os.replace(tmp, path)
-    except OSError as exc:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise InputError(f"cannot write the output ({exc.strerror})", file=path) from None
-
-
 def run(args) -> int:
     from ..evaluation.chain import evaluate
     from ..plan.reader import load_plan
@@ -85,21 +66,25 @@ def run(args) -> int:
             expected="60 columns or more",
             found=str(args.width),
         )
-    if args.output and args.format != "csv":
-        folder = os.path.dirname(os.path.abspath(args.output))
-        if not os.path.isdir(folder) or os.path.isdir(args.output):
+    # every target is checked before any work is done
+    if args.output:
+        kind = "folder" if args.format == "csv" else "file"
+        check_output_path(args.output, inputs=[path], kind=kind, key="-o")
+    if args.curve:
+        curve = check_output_path(args.curve, inputs=[path], what="the curve", key="--curve")
+        if args.output and args.format != "csv" and curve == resolve_target(args.output):
             raise InputError(
-                "cannot write the output",
-                file=args.output,
-                expected="a file in an existing folder",
-                found="a folder" if os.path.isdir(args.output) else "no such folder",
+                "the curve and the output would be one file",
+                key="--curve",
+                expected="a file other than -o",
+                found=args.output,
             )
     results = evaluate(load_plan(path))
     data = results.to_dict()
     if args.curve:
         from ..report.export import curve_csv
 
-        write_atomic(args.curve, curve_csv(data).encode())
+        write_file(args.curve, curve_csv(data), what="the curve")
     if args.format == "pdf":
         from ..report.pdf import render_pdf
 
@@ -108,7 +93,7 @@ def run(args) -> int:
                 "a PDF needs an output file", key="-o", expected="-o FILE.pdf", found="nothing"
             )
         payload = render_pdf(data, paper=args.paper)
-        write_atomic(args.output, payload)
+        write_file(args.output, payload)
         return 0
     if args.format == "csv":
         from ..report.export import write_csv_folder
@@ -121,7 +106,7 @@ def run(args) -> int:
         return 0
     text = render(data, args.format, width=args.width)
     if args.output:
-        write_atomic(args.output, text.encode())
+        write_file(args.output, text)
     else:
         sys.stdout.write(text)
     return 0

@@ -910,12 +910,12 @@ class CryoplanApp(App):
     def _print_to(self, path: str | None) -> None:
         if not path:
             return
-        from ..commands.print_budget import write_atomic
+        from ..files import write_file
         from ..report import render
 
         path = os.path.abspath(os.path.expanduser(path))
         try:
-            write_atomic(path, render(self.data, "text").encode())
+            write_file(path, render(self.data, "text"))
         except CryoplanError as exc:
             self._status(f"Not written: {exc}")
             return

@@ -16,8 +16,6 @@ from __future__ import annotations
 
 import hashlib
 import os
-import shutil
-import tempfile
 from collections.abc import Callable
 from dataclasses import dataclass, field
 from typing import Any
@@ -25,6 +23,7 @@ from typing import Any
 import tomlkit
 
 from ..errors import CryoplanError, InputError, InputErrors
+from ..files import PLAN_BACKUPS, backup_path, resolve_target, write_file
 
 #: Kinds of field and the dimension their value is checked against.
 FIELD_KINDS = ("name", "material", "mass", "temperature", "start")
@@ -580,11 +579,13 @@ class PlanDocument:
         return now is not None and now != self.disk_signature
 
     def backup_path(self, path: str | None = None) -> str:
-        return (path or self.path) + ".bak"
+        """The newest backup of the plan (beside the file a symbolic link points to)."""
+        return backup_path(resolve_target(path or self.path))
 
     def save(self, path: str | None = None, *, overwrite: bool = False) -> str:
-        """Write the plan: keep the previous file as ``.bak``, write a temporary file in the
-        same folder, then rename it over the plan. Returns the path written.
+        """Write the plan with :func:`cryoplan.files.write_file`: the previous versions are
+        kept as ``.bak``, ``.bak.1``, ``.bak.2``; a plan that is a symbolic link saves the
+        file it points to. Returns the path written.
 
         Raises :class:`DiskChanged` when the file changed on disk since it was opened
         (unless ``overwrite``), and :class:`~cryoplan.errors.InputError` when the file
@@ -595,31 +596,7 @@ class PlanDocument:
         if same and not overwrite and self.changed_on_disk():
             raise DiskChanged(f"{self.path} changed on disk since it was opened")
         text = self.text
-        folder = os.path.dirname(target)
-        try:
-            fd, tmp = tempfile.mkstemp(prefix=".cryoplan-", suffix=".toml", dir=folder)
-        except OSError as exc:
-            raise InputError(f"cannot write the plan ({exc.strerror})", file=target) from None
-        try:
-            with os.fdopen(fd, "w", encoding="utf-8", newline="") as fh:
-                fh.write(text)
-                fh.flush()
-                os.fsync(fh.fileno())
-            if os.path.exists(target):
-                mode = os.stat(target).st_mode & 0o777
-                os.chmod(tmp, mode)
-                fd_b, tmp_b = tempfile.mkstemp(prefix=".cryoplan-", suffix=".bak", dir=folder)
-                os.close(fd_b)
-                shutil.copy2(target, tmp_b)
-                os.replace(tmp_b, self.backup_path(target))
-            os.replace(tmp, target)
-        except OSError as exc:
-            for leftover in (tmp,):
-                try:
-                    os.unlink(leftover)
-                except OSError:
-                    pass
-            raise InputError(f"cannot write the plan ({exc.strerror})", file=target) from None
+        write_file(target, text, backups=PLAN_BACKUPS, what="the plan")
         self.path = target if not same else self.path
         self.saved_text = text
         self.disk_signature = hashlib.sha256(text.encode()).hexdigest()

@@ -726,7 +726,10 @@ def test_smoke_in_a_real_terminal(tmp_path):
     import sys
 
     session = f"cryoplan-test-{os.getpid()}"
-    env = dict(os.environ, PYTHONPATH=os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__)))))
+    env = dict(
+        os.environ,
+        PYTHONPATH=os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__)))),
+    )
     command = f"{sys.executable} -m cryoplan open --plain; sleep 5"
 
     def tmux(*args):
@@ -751,3 +754,33 @@ def test_smoke_in_a_real_terminal(tmp_path):
         assert "Cold mass" not in screen  # the dashboard closed and left the shell's screen
     finally:
         tmux("kill-session", "-t", session)
+
+
+def test_saving_a_plan_that_is_a_symlink_saves_the_file_it_points_to(tmp_path):
+    real_folder = tmp_path / "plans"
+    real_folder.mkdir()
+    real = real_folder / "bay3.toml"
+    original = open(demo_plan_path(), encoding="utf-8").read()
+    real.write_text(original, encoding="utf-8")
+    link = tmp_path / "current.toml"
+    link.symlink_to(real)
+
+    async def go():
+        app = CryoplanApp(str(link))
+        async with app.run_test(size=(80, 24)) as pilot:
+            await settled(app, pilot)
+            for mass in ("25 kg", "26 kg"):  # two saves: two generations of backups
+                await edit_cell(app, pilot, "p1.1", "mass", mass)
+                await settled(app, pilot)
+                await pilot.press("ctrl+s")
+                await pilot.pause()
+                assert "Saved" in str(app.query_one("#status").content)
+
+    run(go())
+    assert link.is_symlink() and os.readlink(link) == str(real)
+    assert '"26 kg"' in real.read_text(encoding="utf-8")
+    # the backups sit beside the real file: the file as opened, then the first save
+    assert (real_folder / "bay3.toml.bak.1").read_text(encoding="utf-8") == original
+    assert '"25 kg"' in (real_folder / "bay3.toml.bak").read_text(encoding="utf-8")
+    assert sorted(os.listdir(tmp_path)) == ["current.toml", "plans"]
+    assert sorted(os.listdir(real_folder)) == ["bay3.toml", "bay3.toml.bak", "bay3.toml.bak.1"]
