@@ -23,14 +23,8 @@ from cryoplan.plan import demo_plan_path, examples_dir
 from cryoplan.tui.app import CryoplanApp
 from cryoplan.tui.charts import draw_chart
 from cryoplan.tui.editing import EditRejected, PlanDocument, check_value
-from cryoplan.tui.widgets import (
-    ChartView,
-    ColdMassTable,
-    ConfirmScreen,
-    MaterialPicker,
-    PromptScreen,
-    QuitScreen,
-)
+from cryoplan.tui.screens import ConfirmScreen, MaterialPicker, PromptScreen, QuitScreen
+from cryoplan.tui.widgets import ChartView, ColdMassTable
 
 SNAPSHOTS = os.path.join(os.path.dirname(__file__), "snapshots")
 UPDATE = os.environ.get("CRYOPLAN_UPDATE_SNAPSHOTS", "") not in ("", "0")
@@ -179,8 +173,8 @@ def test_edit_mass_changes_the_litres(plan_file):
                 former_before * 30 / 22, rel=0.01
             )
             # the figures that changed are marked (and the mark is a one-shot)
-            assert any(k[1] == "steps" for k in app._highlight)
-            assert app._mark_timer is not None
+            assert any(k[1] == "steps" for k in app.main.highlight)
+            assert app.main.mark_timer is not None
 
     run(go())
 
