@@ -224,6 +224,16 @@ def _y(b, t, g, bi, c) -> np.ndarray:
     return np.minimum(y, _Y_CAP)
 
 
+def _log1mexp(y: np.ndarray) -> np.ndarray:
+    """ln(1 - e^-y) for y > 0 to full relative accuracy (expm1 below ln 2, log1p above)."""
+    near = y < np.log(2.0)
+    return np.where(
+        near,
+        np.log(-np.expm1(-np.where(near, y, 1.0))),
+        np.log1p(-np.exp(-np.where(near, 1.0, y))),
+    )
+
+
 def _entropy_over_r(y: np.ndarray, j: np.ndarray) -> np.ndarray:
     """S/R of 2J+1 equally spaced levels at spacing ratio y (exact, overflow-safe)."""
     n = 2 * j + 1
@@ -232,7 +242,7 @@ def _entropy_over_r(y: np.ndarray, j: np.ndarray) -> np.ndarray:
     y = np.where(small, y, 0.0)  # the series only where it is used
     u = np.exp(-ys)
     # ln Z' = ln[(1 - u^n) / (1 - u)], Z' = Z exp(-J y) the sum over k = J - m of u^k
-    ln_z = np.log(-np.expm1(-n * ys)) - np.log(-np.expm1(-ys))
+    ln_z = _log1mexp(n * ys) - _log1mexp(ys)
     # <k> = u / (1 - u) - n u^n / (1 - u^n)
     mean_k = u / -np.expm1(-ys) - n * np.exp(-n * ys) / -np.expm1(-n * ys)
     closed = ln_z + np.where(mean_k > 0, ys * mean_k, 0.0)
