@@ -1,23 +1,47 @@
 """Plans: the schema as typed dataclasses, the reader with located errors, and the
 style-preserving document the dashboard edits."""
 
-from .reader import (
+from .reader import demo_plan_path, examples_dir, load_plan, parse_plan, read_text
+from .schema import (
     BOILING_POINT_SNAP_K,
+    DEFAULT_EMISSIVITY,
     DEFAULT_TRANSFER_LOSS,
     DEFAULT_TRANSFER_LOSS_OTHER,
+    MLI_DEGRADATION,
+    Bath,
+    Cooldown,
+    Cooler,
+    CoolerStage,
+    Insert,
+    Load,
+    Part,
     Plan,
-    demo_plan_path,
-    examples_dir,
-    load_plan,
-    parse_plan,
-    read_text,
+    Room,
+    Stage,
+    Step,
+    Supply,
+    Vessel,
 )
 
 __all__ = [
     "BOILING_POINT_SNAP_K",
+    "DEFAULT_EMISSIVITY",
     "DEFAULT_TRANSFER_LOSS",
     "DEFAULT_TRANSFER_LOSS_OTHER",
+    "MLI_DEGRADATION",
+    "Bath",
+    "Cooldown",
+    "Cooler",
+    "CoolerStage",
+    "Insert",
+    "Load",
+    "Part",
     "Plan",
+    "Room",
+    "Stage",
+    "Step",
+    "Supply",
+    "Vessel",
     "demo_plan_path",
     "examples_dir",
     "load_plan",
