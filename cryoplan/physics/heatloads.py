@@ -21,6 +21,7 @@ from typing import NamedTuple
 
 import numpy as np
 
+from . import checks
 from .errors import InputError, TemperatureError, UnknownNameError
 
 
@@ -105,46 +106,6 @@ class RegimeError(InputError):
 # --------------------------------------------------------------------------------------------
 
 
-def _temperature(name: str, value) -> np.ndarray:
-    arr = np.asarray(value, dtype=float)
-    if arr.size and (not np.all(np.isfinite(arr)) or np.any(arr <= 0.0)):
-        raise TemperatureError(f"{name} must be a temperature above 0 K; found {value!r} K")
-    return arr
-
-
-def _nonnegative(name: str, value, unit: str = "") -> np.ndarray:
-    arr = np.asarray(value, dtype=float)
-    if arr.size and (not np.all(np.isfinite(arr)) or np.any(arr < 0.0)):
-        raise InputError(
-            f"{name} cannot be negative",
-            key=name,
-            expected=f"a finite value >= 0{' ' + unit if unit else ''}",
-            found=repr(value),
-        )
-    return arr
-
-
-def _positive(name: str, value, unit: str = "") -> np.ndarray:
-    arr = np.asarray(value, dtype=float)
-    if arr.size and (not np.all(np.isfinite(arr)) or np.any(arr <= 0.0)):
-        raise InputError(
-            f"{name} must be positive",
-            key=name,
-            expected=f"a finite value > 0{' ' + unit if unit else ''}",
-            found=repr(value),
-        )
-    return arr
-
-
-def _fraction(name: str, value) -> np.ndarray:
-    arr = np.asarray(value, dtype=float)
-    if arr.size and (not np.all(np.isfinite(arr)) or np.any(arr <= 0.0) or np.any(arr > 1.0)):
-        raise InputError(
-            f"{name} must lie in (0, 1]", key=name, expected="0 < value <= 1", found=repr(value)
-        )
-    return arr
-
-
 def _area_ratio(value) -> np.ndarray:
     arr = np.asarray(value, dtype=float)
     if arr.size and (not np.all(np.isfinite(arr)) or np.any(arr < 0.0) or np.any(arr > 1.0)):
@@ -156,12 +117,6 @@ def _area_ratio(value) -> np.ndarray:
             found=repr(value),
         )
     return arr
-
-
-def _scalar(value) -> float | np.ndarray:
-    """A 0-d array back to a float; arrays stay arrays."""
-    arr = np.asarray(value)
-    return float(arr) if arr.ndim == 0 else arr
 
 
 def _as_function(f, name: str) -> Callable[[np.ndarray], np.ndarray]:
@@ -257,14 +212,14 @@ def gray_body_exchange(
     >>> round(gray_body_exchange(1.0, 77.0, 300.0, 0.05, 0.05, 1.0), 3)  # parallel plates
     11.726
     """
-    A = _nonnegative("area", area, "m^2")
-    Tc = _temperature("T_cold", T_cold)
-    Tw = _temperature("T_warm", T_warm)
-    ec = _fraction("emissivity_cold", emissivity_cold)
-    ew = _fraction("emissivity_warm", emissivity_warm)
+    A = checks.nonnegative(area, "area", "m^2", key="area")
+    Tc = checks.temperature(T_cold, "T_cold")
+    Tw = checks.temperature(T_warm, "T_warm")
+    ec = checks.fraction(emissivity_cold, "emissivity_cold", key="emissivity_cold")
+    ew = checks.fraction(emissivity_warm, "emissivity_warm", key="emissivity_warm")
     ratio = _area_ratio(area_ratio)
     denominator = 1.0 / ec + ratio * (1.0 / ew - 1.0)
-    return _scalar(_const.sigma * A * (Tw**4 - Tc**4) / denominator)
+    return checks.scalar(_const.sigma * A * (Tw**4 - Tc**4) / denominator)
 
 
 # --------------------------------------------------------------------------------------------
@@ -406,9 +361,9 @@ def mli_heat_flux(
     """
     if model not in MLI_MODELS:
         raise UnknownNameError("multilayer insulation model", model, MLI_MODELS, key="model")
-    Tc = _temperature("T_cold", T_cold)
-    Tw = _temperature("T_warm", T_warm)
-    N = _nonnegative("layers", layers)
+    Tc = checks.temperature(T_cold, "T_cold")
+    Tw = checks.temperature(T_warm, "T_warm")
+    N = checks.nonnegative(layers, "layers", key="layers")
     if model == "lockheed" and N.size and np.any(N < 1.0):
         raise InputError(
             "the Lockheed correlation needs at least one layer",
@@ -416,14 +371,16 @@ def mli_heat_flux(
             expected=">= 1",
             found=repr(layers),
         )
-    density = _positive("layer_density", layer_density, "1/m")
-    e = _fraction(
-        "emissivity", MLI_LOCKHEED_DAP_NET["emissivity"] if emissivity is None else emissivity
+    density = checks.positive(layer_density, "layer_density", "1/m", key="layer_density")
+    e = checks.fraction(
+        MLI_LOCKHEED_DAP_NET["emissivity"] if emissivity is None else emissivity,
+        "emissivity",
+        key="emissivity",
     )
-    p = _nonnegative("pressure", pressure, "Pa")
-    factor = _positive("degradation", degradation)
+    p = checks.nonnegative(pressure, "pressure", "Pa", key="pressure")
+    factor = checks.positive(degradation, "degradation", key="degradation")
     q = MLI_MODELS[model](Tc, Tw, N, density, e, p)
-    return _scalar(factor * q)
+    return checks.scalar(factor * q)
 
 
 def mli_load(area, T_cold, T_warm, layers, layer_density=2000.0, **options) -> float | np.ndarray:
@@ -460,8 +417,8 @@ def mli_load(area, T_cold, T_warm, layers, layer_density=2000.0, **options) -> f
     >>> round(mli_load(2.0, 77.0, 300.0, 30), 3)
     0.931
     """
-    A = _nonnegative("area", area, "m^2")
-    return _scalar(A * mli_heat_flux(T_cold, T_warm, layers, layer_density, **options))
+    A = checks.nonnegative(area, "area", "m^2", key="area")
+    return checks.scalar(A * mli_heat_flux(T_cold, T_warm, layers, layer_density, **options))
 
 
 # --------------------------------------------------------------------------------------------
@@ -515,11 +472,11 @@ def conduction_load(
     >>> round(conduction_load(k_integral, 4.2, 77.0, 20e-6, 0.25, count=3), 4)
     0.2621
     """
-    Tl = _temperature("T_low", T_low)
-    Th = _temperature("T_high", T_high)
-    A = _nonnegative("area", area, "m^2")
-    L = _positive("length", length, "m")
-    n = _nonnegative("count", count)
+    Tl = checks.temperature(T_low, "T_low")
+    Th = checks.temperature(T_high, "T_high")
+    A = checks.nonnegative(area, "area", "m^2", key="area")
+    L = checks.positive(length, "length", "m", key="length")
+    n = checks.nonnegative(count, "count", key="count")
     if Tl.ndim == 0 and Th.ndim == 0:
         if float(Tl) == float(Th):
             integral = 0.0
@@ -531,7 +488,7 @@ def conduction_load(
         lo, hi = np.minimum(Tl, Th), np.maximum(Tl, Th)
         sign = np.where(Th >= Tl, 1.0, -1.0)
         integral = sign * np.asarray(conductivity_integral(lo, hi), dtype=float)
-    return _scalar(n * A / L * integral)
+    return checks.scalar(n * A / L * integral)
 
 
 def segmented_conduction(
@@ -591,8 +548,8 @@ def segmented_conduction(
     >>> [round(float(q), 5) for q in loads]
     [0.00751, 0.00364]
     """
-    T = _temperature("temperatures", temperatures).ravel()
-    L = _positive("lengths", lengths, "m").ravel()
+    T = checks.temperature(temperatures, "temperatures").ravel()
+    L = checks.positive(lengths, "lengths", "m", key="lengths").ravel()
     if T.size < 2:
         raise InputError(
             "a segmented support needs at least two node temperatures",
@@ -614,8 +571,8 @@ def segmented_conduction(
             expected=f"{T.size - 1} lengths",
             found=f"{L.size}",
         )
-    A = np.broadcast_to(_nonnegative("area", area, "m^2"), L.shape)
-    n = _nonnegative("count", count)
+    A = np.broadcast_to(checks.nonnegative(area, "area", "m^2", key="area"), L.shape)
+    n = checks.nonnegative(count, "count", key="count")
     segments = np.array(
         [
             conduction_load(conductivity_integral, T[i + 1], T[i], A[i], L[i], n)
@@ -695,7 +652,7 @@ def awg_diameter(gauge) -> float | np.ndarray:
             expected="an AWG number from 0000 (-3) to 40",
             found=repr(gauge),
         )
-    return _scalar(0.127e-3 * 92.0 ** ((36.0 - n) / 39.0))
+    return checks.scalar(0.127e-3 * 92.0 ** ((36.0 - n) / 39.0))
 
 
 def wire_load(conductivity_integral, T_low, T_high, length, diameter, count=1):
@@ -741,7 +698,7 @@ def wire_load(conductivity_integral, T_low, T_high, length, diameter, count=1):
     >>> round(wire_load(k_integral, 4.2, 300.0, 1.0, awg_diameter(36), 12) * 1e3, 3)
     0.899
     """
-    d = _nonnegative("diameter", diameter, "m")
+    d = checks.nonnegative(diameter, "diameter", "m", key="diameter")
     return conduction_load(
         conductivity_integral, T_low, T_high, math.pi * d**2 / 4.0, length, count
     )
@@ -802,13 +759,13 @@ def _check_lead(current, T_low, T_high, lorenz):
     amps = float(current)
     if not math.isfinite(amps):
         raise InputError("current must be finite", key="current", found=repr(current))
-    Tl = float(_temperature("T_low", T_low))
-    Th = float(_temperature("T_high", T_high))
+    Tl = float(checks.temperature(T_low, "T_low"))
+    Th = float(checks.temperature(T_high, "T_high"))
     if Tl >= Th:
         raise TemperatureError(
             f"a current lead needs T_low below T_high; found {Tl:g} K and {Th:g} K"
         )
-    L0 = float(_positive("lorenz", lorenz, "W Ohm/K^2"))
+    L0 = float(checks.positive(lorenz, "lorenz", "W Ohm/K^2", key="lorenz"))
     return abs(amps), Tl, Th, L0
 
 
@@ -956,8 +913,8 @@ def conduction_cooled_lead_solution(
     (28.08, 300.0)
     """
     amps, Tl, Th, L0 = _check_lead(current, T_low, T_high, lorenz)
-    L = float(_positive("length", length, "m"))
-    A = float(_positive("area", area, "m^2"))
+    L = float(checks.positive(length, "length", "m", key="length"))
+    A = float(checks.positive(area, "area", "m^2", key="area"))
     k = _as_function(conductivity, "conductivity")
     full = _ToPeak(k, Tl, Th, L0)
     if amps == 0.0:
@@ -1207,11 +1164,13 @@ class _VaporLead:
 
 def _vapor_inputs(conductivity, vapor_enthalpy, T_low, latent_heat):
     k = _as_function(conductivity, "conductivity")
-    latent = float(_positive("latent_heat", latent_heat, "J/kg"))
+    latent = float(checks.positive(latent_heat, "latent_heat", "J/kg", key="latent_heat"))
     if callable(vapor_enthalpy):
         dh = _as_function(vapor_enthalpy, "vapor_enthalpy")
     else:
-        cp = float(_positive("vapor_enthalpy", vapor_enthalpy, "J/(kg K)"))
+        cp = float(
+            checks.positive(vapor_enthalpy, "vapor_enthalpy", "J/(kg K)", key="vapor_enthalpy")
+        )
         Tl = float(T_low)
         dh = lambda T: cp * (np.asarray(T, dtype=float) - Tl)  # noqa: E731
     return k, dh, latent
@@ -1371,8 +1330,8 @@ def vapor_cooled_lead_load(
     0.221
     """
     amps, Tl, Th, L0 = _check_lead(current, T_low, T_high, lorenz)
-    L = float(_positive("length", length, "m"))
-    A = float(_positive("area", area, "m^2"))
+    L = float(checks.positive(length, "length", "m", key="length"))
+    A = float(checks.positive(area, "area", "m^2", key="area"))
     if amps == 0.0:
         return vapor_cooled_neck_load(conductivity, A, L, Tl, Th, latent_heat, vapor_enthalpy)
     k, dh, latent = _vapor_inputs(conductivity, vapor_enthalpy, Tl, latent_heat)
@@ -1495,11 +1454,11 @@ def vapor_cooled_neck_load(
     >>> round(vapor_cooled_neck_load(10.0, 1e-4, 0.5, 4.2, 300.0, 20.7e3, 5193.0), 4)
     0.0344
     """
-    Tl = float(_temperature("T_low", T_low))
-    Th = float(_temperature("T_high", T_high))
-    A = float(_nonnegative("area", area, "m^2"))
-    L = float(_positive("length", length, "m"))
-    other = float(_nonnegative("other_load", other_load, "W"))
+    Tl = float(checks.temperature(T_low, "T_low"))
+    Th = float(checks.temperature(T_high, "T_high"))
+    A = float(checks.nonnegative(area, "area", "m^2", key="area"))
+    L = float(checks.positive(length, "length", "m", key="length"))
+    other = float(checks.nonnegative(other_load, "other_load", "W", key="other_load"))
     if Th <= Tl or A == 0.0:
         if Th < Tl:
             raise TemperatureError(
@@ -1587,9 +1546,9 @@ def mean_free_path(gas: str, pressure, temperature) -> float | np.ndarray:
     6.58
     """
     d = _gas(gas)["diameter"]
-    p = _positive("pressure", pressure, "Pa")
-    T = _temperature("temperature", temperature)
-    return _scalar(_const.k * T / (math.sqrt(2.0) * math.pi * d**2 * p))
+    p = checks.positive(pressure, "pressure", "Pa", key="pressure")
+    T = checks.temperature(temperature, "temperature")
+    return checks.scalar(_const.k * T / (math.sqrt(2.0) * math.pi * d**2 * p))
 
 
 def free_molecular_conduction(
@@ -1673,12 +1632,12 @@ def free_molecular_conduction(
     0.4682
     """
     props = _gas(gas)
-    A = _nonnegative("area", area, "m^2")
-    Tc = _temperature("T_cold", T_cold)
-    Tw = _temperature("T_warm", T_warm)
-    p = _nonnegative("pressure", pressure, "Pa")
+    A = checks.nonnegative(area, "area", "m^2", key="area")
+    Tc = checks.temperature(T_cold, "T_cold")
+    Tw = checks.temperature(T_warm, "T_warm")
+    p = checks.nonnegative(pressure, "pressure", "Pa", key="pressure")
     if np.ndim(accommodation) == 0:
-        a_c = a_w = _fraction("accommodation", accommodation)
+        a_c = a_w = checks.fraction(accommodation, "accommodation", key="accommodation")
     else:
         pair = np.asarray(accommodation, dtype=float)
         if pair.shape != (2,):
@@ -1688,11 +1647,18 @@ def free_molecular_conduction(
                 expected="a number or [cold, warm]",
                 found=repr(accommodation),
             )
-        a_c, a_w = _fraction("accommodation", pair[0]), _fraction("accommodation", pair[1])
+        a_c, a_w = (
+            checks.fraction(pair[0], "accommodation", key="accommodation"),
+            checks.fraction(pair[1], "accommodation", key="accommodation"),
+        )
     ratio = _area_ratio(area_ratio)
-    Tg = Tw if gauge_temperature is None else _temperature("gauge_temperature", gauge_temperature)
+    Tg = (
+        Tw
+        if gauge_temperature is None
+        else checks.temperature(gauge_temperature, "gauge_temperature")
+    )
     if gap is not None:
-        g = _positive("gap", gap, "m")
+        g = checks.positive(gap, "gap", "m", key="gap")
         if np.any(p > 0):
             d = props["diameter"]
             with np.errstate(divide="ignore"):
@@ -1709,7 +1675,7 @@ def free_molecular_conduction(
     gamma, M = props["gamma"], props["molar_mass"]
     a0 = a_c * a_w / (a_w + a_c * (1.0 - a_w) * ratio)
     coefficient = (gamma + 1.0) / (gamma - 1.0) * np.sqrt(_const.R / (8.0 * math.pi * M * Tg))
-    return _scalar(A * a0 * coefficient * p * (Tw - Tc))
+    return checks.scalar(A * a0 * coefficient * p * (Tw - Tc))
 
 
 # --------------------------------------------------------------------------------------------
@@ -1760,10 +1726,10 @@ def boiloff_rate(heat_load, latent_heat, liquid_density) -> float | np.ndarray:
     >>> round(boiloff_rate(1.0, 20.56e3, 124.7) * 3.6e6, 3)    # L/h of helium per watt
     1.404
     """
-    Q = _nonnegative("heat_load", heat_load, "W")
-    h = _positive("latent_heat", latent_heat, "J/kg")
-    rho = _positive("liquid_density", liquid_density, "kg/m^3")
-    return _scalar(Q / (h * rho))
+    Q = checks.nonnegative(heat_load, "heat_load", "W", key="heat_load")
+    h = checks.positive(latent_heat, "latent_heat", "J/kg", key="latent_heat")
+    rho = checks.positive(liquid_density, "liquid_density", "kg/m^3", key="liquid_density")
+    return checks.scalar(Q / (h * rho))
 
 
 def hold_time(usable_volume, heat_load, latent_heat, liquid_density) -> float | np.ndarray:
@@ -1805,13 +1771,13 @@ def hold_time(usable_volume, heat_load, latent_heat, liquid_density) -> float | 
     >>> round(hold_time(0.1, 0.5, 20.56e3, 124.7) / 3600.0, 1)     # hours
     142.4
     """
-    V = _nonnegative("usable_volume", usable_volume, "m^3")
-    Q = _nonnegative("heat_load", heat_load, "W")
-    h = _positive("latent_heat", latent_heat, "J/kg")
-    rho = _positive("liquid_density", liquid_density, "kg/m^3")
+    V = checks.nonnegative(usable_volume, "usable_volume", "m^3", key="usable_volume")
+    Q = checks.nonnegative(heat_load, "heat_load", "W", key="heat_load")
+    h = checks.positive(latent_heat, "latent_heat", "J/kg", key="latent_heat")
+    rho = checks.positive(liquid_density, "liquid_density", "kg/m^3", key="liquid_density")
     with np.errstate(divide="ignore", invalid="ignore"):
         t = np.where(Q > 0.0, V * h * rho / np.where(Q > 0.0, Q, 1.0), np.inf)
-    return _scalar(t)
+    return checks.scalar(t)
 
 
 def refill_schedule(
@@ -1869,7 +1835,9 @@ def refill_schedule(
             expected="> 0 s",
             found=repr(hold_seconds),
         )
-    horizon = float(_nonnegative("horizon_seconds", horizon_seconds, "s"))
+    horizon = float(
+        checks.nonnegative(horizon_seconds, "horizon_seconds", "s", key="horizon_seconds")
+    )
     if math.isinf(hold):
         return []
     count = int(math.floor(horizon / hold * (1.0 + 1e-12)))

@@ -34,6 +34,7 @@ from typing import NamedTuple
 
 import numpy as np
 
+from . import checks
 from .errors import InputError
 
 __all__ = [
@@ -127,72 +128,18 @@ LOSS_OF_VACUUM_HEAT_FLUX_INSULATED = 0.6e4
 # ---------------------------------------------------------------------------------------
 
 
-def _array(value, name: str) -> np.ndarray:
-    try:
-        arr = np.asarray(value, dtype=float)
-    except (TypeError, ValueError):
-        raise InputError(
-            f"{name} is not a number", expected="a number", found=repr(value)
-        ) from None
-    return arr
-
-
-def _first_bad(arr: np.ndarray, bad: np.ndarray) -> float:
-    return float(arr[bad].flat[0]) if arr.ndim else float(arr)
-
-
-def _check(value, name: str, unit: str, *, zero: bool = True, inf: bool = False) -> np.ndarray:
-    """A non-negative (or, with ``zero=False``, positive) quantity, NaN refused."""
-    if (
-        type(value) is float
-        and (value > 0.0 or (zero and value == 0.0))
-        and (inf or value != math.inf)
-    ):
-        return np.asarray(value)  # the common case, without array reductions
-    arr = _array(value, name)
-    ok = arr >= 0.0 if zero else arr > 0.0
-    if not inf:
-        ok &= np.isfinite(arr)
-    bad = ~ok
-    if np.any(bad):
-        found = _first_bad(arr, bad)
-        if zero:
-            message, expected = f"{name} must not be negative", f"0 {unit} or more"
-        else:
-            message, expected = f"{name} must be above zero", f"more than 0 {unit}"
-        if not inf and np.isinf(found):
-            message = f"{name} must be finite"
-        raise InputError(message, expected=expected, found=f"{found:g} {unit}")
-    return arr
-
-
 def _check_percent(value, name: str) -> np.ndarray:
     if type(value) is float and 0.0 <= value <= AIR_OXYGEN_PERCENT:
         return np.asarray(value)
-    arr = _array(value, name)
+    arr = checks.as_array(value, name)
     bad = ~((arr >= 0.0) & (arr <= AIR_OXYGEN_PERCENT))
     if np.any(bad):
         raise InputError(
             f"{name} must be an oxygen level between 0 and {AIR_OXYGEN_PERCENT} %",
             expected=f"0 to {AIR_OXYGEN_PERCENT} %",
-            found=f"{_first_bad(arr, bad):g} %",
+            found=f"{checks.first_bad(arr, bad):g} %",
         )
     return arr
-
-
-def _check_fraction(value, name: str) -> float:
-    arr = _array(value, name)
-    if arr.ndim or not (0.0 <= float(arr) <= 1.0):
-        raise InputError(
-            f"{name} must be a fraction from 0 to 1", expected="0 to 1", found=repr(value)
-        )
-    return float(arr)
-
-
-def _out(x):
-    """A float for scalar results, the array otherwise."""
-    x = np.asarray(x, dtype=float)
-    return float(x) if x.ndim == 0 else x
 
 
 # ---------------------------------------------------------------------------------------
@@ -234,9 +181,9 @@ def gas_volume(liquid_volume, expansion_ratio):
     >>> gas_volume(0.250, 750.0)  # 250 L of liquid helium
     187.5
     """
-    v = _check(liquid_volume, "liquid volume", "m^3")
-    e = _check(expansion_ratio, "expansion ratio", "", zero=False)
-    return _out(v * e)
+    v = checks.nonnegative(liquid_volume, "liquid volume", "m^3")
+    e = checks.positive(expansion_ratio, "expansion ratio", "")
+    return checks.scalar(v * e)
 
 
 def gas_rate(liquid_rate, expansion_ratio):
@@ -275,9 +222,9 @@ def gas_rate(liquid_rate, expansion_ratio):
     >>> round(r * 3600.0, 4)  # m^3/h of gas
     0.0292
     """
-    v = _check(liquid_rate, "liquid evaporation rate", "m^3/s")
-    e = _check(expansion_ratio, "expansion ratio", "", zero=False)
-    return _out(v * e)
+    v = checks.nonnegative(liquid_rate, "liquid evaporation rate", "m^3/s")
+    e = checks.positive(expansion_ratio, "expansion ratio", "")
+    return checks.scalar(v * e)
 
 
 def air_change_flow(air_changes, room_volume):
@@ -312,9 +259,9 @@ def air_change_flow(air_changes, room_volume):
     >>> round(air_change_flow(2.0 / 3600.0, 100.0) * 3600.0, 6)  # m^3/h
     200.0
     """
-    n = _check(air_changes, "air-change rate", "1/s")
-    v = _check(room_volume, "room volume", "m^3", zero=False)
-    return _out(n * v)
+    n = checks.nonnegative(air_changes, "air-change rate", "1/s")
+    v = checks.positive(room_volume, "room volume", "m^3")
+    return checks.scalar(n * v)
 
 
 def loss_of_vacuum_gas_rate(
@@ -365,12 +312,12 @@ def loss_of_vacuum_gas_rate(
     >>> round(loss_of_vacuum_gas_rate(0.5, 20.9e3, 125.0, 750.0), 2)  # m^3/s
     5.45
     """
-    a = _check(wetted_area, "wetted area", "m^2")
-    lat = _check(latent_heat, "latent heat", "J/kg", zero=False)
-    rho = _check(liquid_density, "liquid density", "kg/m^3", zero=False)
-    e = _check(expansion_ratio, "expansion ratio", "", zero=False)
-    q = _check(heat_flux, "heat flux", "W/m^2")
-    return _out(e * q * a / (lat * rho))
+    a = checks.nonnegative(wetted_area, "wetted area", "m^2")
+    lat = checks.positive(latent_heat, "latent heat", "J/kg")
+    rho = checks.positive(liquid_density, "liquid density", "kg/m^3")
+    e = checks.positive(expansion_ratio, "expansion ratio", "")
+    q = checks.nonnegative(heat_flux, "heat flux", "W/m^2")
+    return checks.scalar(e * q * a / (lat * rho))
 
 
 # ---------------------------------------------------------------------------------------
@@ -419,10 +366,10 @@ def mixed_release_percent(gas_volume, room_volume, initial_percent=AIR_OXYGEN_PE
     >>> round(mixed_release_percent(187.5, 100.0), 2)  # 250 L liquid helium, 100 m^3
     3.21
     """
-    vg = _check(gas_volume, "gas volume", "m^3")
-    vr = _check(room_volume, "room volume", "m^3", zero=False)
+    vg = checks.nonnegative(gas_volume, "gas volume", "m^3")
+    vr = checks.positive(room_volume, "room volume", "m^3")
     c0 = _check_percent(initial_percent, "initial oxygen")
-    return _out(c0 * np.exp(-vg / vr))
+    return checks.scalar(c0 * np.exp(-vg / vr))
 
 
 def displacement_release_percent(gas_volume, room_volume, initial_percent=AIR_OXYGEN_PERCENT):
@@ -465,10 +412,10 @@ def displacement_release_percent(gas_volume, room_volume, initial_percent=AIR_OX
     >>> round(displacement_release_percent(7.0, 36.0), 2)  # 10 L liquid nitrogen, 36 m^3
     16.84
     """
-    vg = _check(gas_volume, "gas volume", "m^3")
-    vr = _check(room_volume, "room volume", "m^3", zero=False)
+    vg = checks.nonnegative(gas_volume, "gas volume", "m^3")
+    vr = checks.positive(room_volume, "room volume", "m^3")
     c0 = _check_percent(initial_percent, "initial oxygen")
-    return _out(c0 * np.maximum(0.0, 1.0 - vg / vr))
+    return checks.scalar(c0 * np.maximum(0.0, 1.0 - vg / vr))
 
 
 def dilution_release_percent(gas_volume, room_volume, initial_percent=AIR_OXYGEN_PERCENT):
@@ -509,10 +456,10 @@ def dilution_release_percent(gas_volume, room_volume, initial_percent=AIR_OXYGEN
     >>> round(dilution_release_percent(187.5, 100.0), 2)
     7.27
     """
-    vg = _check(gas_volume, "gas volume", "m^3")
-    vr = _check(room_volume, "room volume", "m^3", zero=False)
+    vg = checks.nonnegative(gas_volume, "gas volume", "m^3")
+    vr = checks.positive(room_volume, "room volume", "m^3")
     c0 = _check_percent(initial_percent, "initial oxygen")
-    return _out(c0 * vr / (vr + vg))
+    return checks.scalar(c0 * vr / (vr + vg))
 
 
 #: The sudden-release models by name, most conservative first: ``"displacement"``
@@ -644,12 +591,12 @@ def minimum_room_volume(gas_volume, level_percent, model=DEFAULT_SUDDEN_MODEL):
     2704.0
     """
     _model(model)
-    vg = _check(gas_volume, "gas volume", "m^3")
+    vg = checks.nonnegative(gas_volume, "gas volume", "m^3")
     c = _check_percent(level_percent, "oxygen level")
     with np.errstate(divide="ignore", invalid="ignore"):
         v = _ROOM_VOLUME_FOR[model](vg, c)
     v = np.where(vg == 0.0, 0.0, np.where(c >= AIR_OXYGEN_PERCENT, np.inf, v))
-    return _out(v)
+    return checks.scalar(v)
 
 
 # ---------------------------------------------------------------------------------------
@@ -693,11 +640,11 @@ def steady_state_percent(release_rate, ventilation):
     >>> round(steady_state_percent(0.01, 0.05), 3)
     17.417
     """
-    r = _check(release_rate, "release rate", "m^3/s")
-    q = _check(ventilation, "ventilation", "m^3/s")
+    r = checks.nonnegative(release_rate, "release rate", "m^3/s")
+    q = checks.nonnegative(ventilation, "ventilation", "m^3/s")
     with np.errstate(divide="ignore", invalid="ignore"):
         c = np.where(r > 0.0, AIR_OXYGEN_PERCENT * q / (q + r), AIR_OXYGEN_PERCENT)
-    return _out(c)
+    return checks.scalar(c)
 
 
 def time_constant(room_volume, ventilation, release_rate=0.0):
@@ -733,11 +680,11 @@ def time_constant(room_volume, ventilation, release_rate=0.0):
     >>> time_constant(100.0, 200.0 / 3600.0) / 60.0  # 2 air changes per hour: minutes
     30.0
     """
-    v = _check(room_volume, "room volume", "m^3", zero=False)
-    q = _check(ventilation, "ventilation", "m^3/s")
-    r = _check(release_rate, "release rate", "m^3/s")
+    v = checks.positive(room_volume, "room volume", "m^3")
+    q = checks.nonnegative(ventilation, "ventilation", "m^3/s")
+    r = checks.nonnegative(release_rate, "release rate", "m^3/s")
     with np.errstate(divide="ignore"):
-        return _out(v / (q + r))
+        return checks.scalar(v / (q + r))
 
 
 def continuous_release_percent(
@@ -793,16 +740,16 @@ def continuous_release_percent(
     >>> continuous_release_percent([0.0, 1e9], 0.01, 100.0, 0.05).round(3)
     array([20.9  , 17.417])
     """
-    t = _check(time, "time", "s", inf=True)
-    r = _check(release_rate, "release rate", "m^3/s")
-    v = _check(room_volume, "room volume", "m^3", zero=False)
-    q = _check(ventilation, "ventilation", "m^3/s")
+    t = checks.nonnegative(time, "time", "s", inf=True)
+    r = checks.nonnegative(release_rate, "release rate", "m^3/s")
+    v = checks.positive(room_volume, "room volume", "m^3")
+    q = checks.nonnegative(ventilation, "ventilation", "m^3/s")
     c0 = _check_percent(initial_percent, "initial oxygen")
     flow = q + r
     with np.errstate(divide="ignore", invalid="ignore"):
         c_inf = np.where(flow > 0.0, AIR_OXYGEN_PERCENT * q / flow, c0)
         decay = np.where(flow > 0.0, np.exp(-flow * t / v), 1.0)
-    return _out(c_inf + (c0 - c_inf) * decay)
+    return checks.scalar(c_inf + (c0 - c_inf) * decay)
 
 
 def recovery_percent(time, start_percent, room_volume, ventilation):
@@ -878,10 +825,10 @@ def ventilation_to_hold(level_percent, release_rate):
     501.4
     """
     c = _check_percent(level_percent, "oxygen level")
-    r = _check(release_rate, "release rate", "m^3/s")
+    r = checks.nonnegative(release_rate, "release rate", "m^3/s")
     with np.errstate(divide="ignore", invalid="ignore"):
         q = np.where(r > 0.0, r * c / (AIR_OXYGEN_PERCENT - c), 0.0)
-    return _out(q)
+    return checks.scalar(q)
 
 
 def ventilation_to_restore(level_percent, start_percent, room_volume, within):
@@ -923,12 +870,12 @@ def ventilation_to_restore(level_percent, start_percent, room_volume, within):
     """
     c = _check_percent(level_percent, "oxygen level")
     c0 = _check_percent(start_percent, "oxygen after the release")
-    v = _check(room_volume, "room volume", "m^3", zero=False)
-    t = _check(within, "time allowed", "s", zero=False, inf=True)
+    v = checks.positive(room_volume, "room volume", "m^3")
+    t = checks.positive(within, "time allowed", "s", inf=True)
     with np.errstate(divide="ignore", invalid="ignore"):
         q = v / t * np.log((AIR_OXYGEN_PERCENT - c0) / (AIR_OXYGEN_PERCENT - c))
     q = np.where(c0 >= c, 0.0, np.where(c >= AIR_OXYGEN_PERCENT, np.inf, q))
-    return _out(q)
+    return checks.scalar(q)
 
 
 # ---------------------------------------------------------------------------------------
@@ -961,8 +908,10 @@ class Release:
     ventilation_working: float = 1.0
 
     def __post_init__(self) -> None:
-        sudden = float(_check(self.sudden_volume, "sudden gas volume", "m^3"))
-        working = _check_fraction(self.ventilation_working, "working share of ventilation")
+        sudden = float(checks.nonnegative(self.sudden_volume, "sudden gas volume", "m^3"))
+        working = float(
+            checks.fraction(self.ventilation_working, "working share of ventilation", zero=True)
+        )
         pairs = []
         last = -math.inf
         for item in self.schedule:
@@ -974,8 +923,8 @@ class Release:
                     expected="(start [s], rate [m^3/s])",
                     found=repr(item),
                 ) from None
-            start = float(_check(start, "release start", "s"))
-            rate = float(_check(rate, "release rate", "m^3/s"))
+            start = float(checks.nonnegative(start, "release start", "s"))
+            rate = float(checks.nonnegative(rate, "release rate", "m^3/s"))
             if not start > last:
                 raise InputError(
                     "release schedule starts must increase",
@@ -1040,7 +989,7 @@ def sudden_release_case(
     187.5
     """
     volume = float(gas_volume(liquid_volume, expansion_ratio))
-    background = float(_check(background_rate, "background boil-off", "m^3/s"))
+    background = float(checks.nonnegative(background_rate, "background boil-off", "m^3/s"))
     schedule = ((0.0, background),) if background > 0.0 else ()
     return Release(label, volume, schedule)
 
@@ -1097,9 +1046,9 @@ def quench_case(
     ((0.0, 2.5), (30.0, 0.0))
     """
     total = float(gas_volume(liquid_volume, expansion_ratio))
-    f = _check_fraction(fraction, "quench fraction")
-    tq = float(_check(duration, "quench duration", "s", zero=False))
-    background = float(_check(background_rate, "background boil-off", "m^3/s"))
+    f = float(checks.fraction(fraction, "quench fraction", zero=True))
+    tq = float(checks.positive(duration, "quench duration", "s"))
+    background = float(checks.nonnegative(background_rate, "background boil-off", "m^3/s"))
     return Release(label, 0.0, ((0.0, f * total / tq + background), (tq, background)))
 
 
@@ -1142,10 +1091,10 @@ def loss_of_vacuum_case(
     >>> loss_of_vacuum_case(0.250, 750.0, 0.5).schedule
     ((0.0, 0.5), (375.0, 0.0))
     """
-    rv = float(_check(gas_rate, "loss-of-vacuum gas rate", "m^3/s"))
-    background = float(_check(background_rate, "background boil-off", "m^3/s"))
+    rv = float(checks.nonnegative(gas_rate, "loss-of-vacuum gas rate", "m^3/s"))
+    background = float(checks.nonnegative(background_rate, "background boil-off", "m^3/s"))
     if liquid_volume is None or rv == 0.0:
-        _check(expansion_ratio, "expansion ratio", "", zero=False)
+        checks.positive(expansion_ratio, "expansion ratio", "")
         return Release(label, 0.0, ((0.0, rv + background),))
     total = float(gas_volume(liquid_volume, expansion_ratio))
     if total == 0.0:
@@ -1179,7 +1128,7 @@ def boiloff_case(background_rate, *, label="normal boil-off"):
     >>> boiloff_case(1e-5).schedule
     ((0.0, 1e-05),)
     """
-    background = float(_check(background_rate, "background boil-off", "m^3/s"))
+    background = float(checks.nonnegative(background_rate, "background boil-off", "m^3/s"))
     return Release(label, 0.0, ((0.0, background),))
 
 
@@ -1215,7 +1164,7 @@ def ventilation_failure_case(background_rate, *, label="ventilation failure"):
     >>> ventilation_failure_case(1e-5).ventilation_working
     0.0
     """
-    background = float(_check(background_rate, "background boil-off", "m^3/s"))
+    background = float(checks.nonnegative(background_rate, "background boil-off", "m^3/s"))
     return Release(label, 0.0, ((0.0, background),), ventilation_working=0.0)
 
 
@@ -1232,8 +1181,11 @@ def _segments(room_volume, ventilation, release, sudden_model, initial_percent) 
     """The exact piecewise solution: in each segment C = c_inf + (c_start - c_inf) e^{-k t}."""
     if not isinstance(release, Release):
         raise InputError("not a release case", expected="a Release", found=type(release).__name__)
-    v = float(_check(room_volume, "room volume", "m^3", zero=False))
-    q = float(_check(ventilation, "ventilation", "m^3/s")) * release.ventilation_working
+    v = float(checks.positive(room_volume, "room volume", "m^3"))
+    q = (
+        float(checks.nonnegative(ventilation, "ventilation", "m^3/s"))
+        * release.ventilation_working
+    )
     c = float(_check_percent(initial_percent, "initial oxygen"))
     if release.sudden_volume > 0.0:
         c = float(_model(sudden_model)(release.sudden_volume, v, c))
@@ -1316,13 +1268,13 @@ def oxygen_curve(
     array([20.9 ,  9.95, 19.39])
     """
     seg = _segments(room_volume, ventilation, release, sudden_model, initial_percent)
-    t = _check(time, "time", "s", inf=True)
+    t = checks.nonnegative(time, "time", "s", inf=True)
     i = np.searchsorted(seg.start, t, side="right") - 1
     dt = t - seg.start[i]
     k = seg.rate[i]
     with np.errstate(invalid="ignore"):
         decay = np.where(k > 0.0, np.exp(-k * dt), 1.0)
-    return _out(seg.c_inf[i] + (seg.c_start[i] - seg.c_inf[i]) * decay)
+    return checks.scalar(seg.c_inf[i] + (seg.c_start[i] - seg.c_inf[i]) * decay)
 
 
 class Lowest(NamedTuple):
@@ -1383,7 +1335,7 @@ def lowest_oxygen(
     >>> round(low.percent, 2), low.time_s
     (9.95, 30.0)
     """
-    horizon = float(_check(horizon, "horizon", "s", zero=False, inf=True))
+    horizon = float(checks.positive(horizon, "horizon", "s", inf=True))
     seg = _segments(room_volume, ventilation, release, sudden_model, initial_percent)
     best, when = float(seg.c_start[0]), 0.0
     for t0, t1, cs, ce, ci, k in zip(*seg, strict=True):
@@ -1913,10 +1865,10 @@ def room_verdict(
     """
     low = float(_check_percent(lowest_percent, "lowest oxygen"))
     alarm = float(_check_percent(alarm_percent, "alarm level"))
-    t_alarm = float(_check(time_to_alarm_s, "time to the alarm level", "s", inf=True))
+    t_alarm = float(checks.nonnegative(time_to_alarm_s, "time to the alarm level", "s", inf=True))
     v_room = None
     if room_volume is not None:
-        v_room = float(_check(room_volume, "room volume", "m^3", zero=False))
+        v_room = float(checks.positive(room_volume, "room volume", "m^3"))
     safe = max(alarm, DEFICIENT_PERCENT)
     lines: list[str] = []
     if low >= safe:
@@ -1953,7 +1905,7 @@ def room_verdict(
         "alarm and wait for rescuers with breathing apparatus."
     )
     if time_to_recover_s is not None:
-        t_rec = float(_check(time_to_recover_s, "time to recover", "s", inf=True))
+        t_rec = float(checks.nonnegative(time_to_recover_s, "time to recover", "s", inf=True))
         if math.isfinite(t_rec) and t_rec > 0.0:
             lines.append(
                 f"With the present ventilation the oxygen is back above {alarm:.1f} % "
@@ -1965,8 +1917,14 @@ def room_verdict(
                 f"{alarm:.1f} % while the release lasts."
             )
     if ventilation_needed is not None:
-        need = float(_check(ventilation_needed, "ventilation needed", "m^3/s", inf=True))
-        now = None if ventilation is None else float(_check(ventilation, "ventilation", "m^3/s"))
+        need = float(
+            checks.nonnegative(ventilation_needed, "ventilation needed", "m^3/s", inf=True)
+        )
+        now = (
+            None
+            if ventilation is None
+            else float(checks.nonnegative(ventilation, "ventilation", "m^3/s"))
+        )
         if math.isfinite(need) and need > 0.0 and (now is None or need > now):
             ask = _number(_round_up(need * 3600.0))
             changes = None if v_room is None else need * 3600.0 / v_room
@@ -1991,7 +1949,9 @@ def room_verdict(
                 "small for this inventory."
             )
             if minimum_room_volume is not None:
-                need_v = float(_check(minimum_room_volume, "minimum room volume", "m^3", inf=True))
+                need_v = float(
+                    checks.nonnegative(minimum_room_volume, "minimum room volume", "m^3", inf=True)
+                )
                 if math.isfinite(need_v):
                     has = "" if v_room is None else f" (it has {_number(v_room)} m^3)"
                     text += (

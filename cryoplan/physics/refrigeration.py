@@ -35,6 +35,7 @@ from dataclasses import dataclass
 import numpy as np
 from scipy import integrate, optimize
 
+from . import checks
 from .errors import InputError, TemperatureError
 
 __all__ = [
@@ -93,32 +94,6 @@ class CoolingShortfallError(InputError):
 
 # --------------------------------------------------------------------------------------
 # small helpers
-
-
-def _out(a: np.ndarray):
-    """A 0-d result as a Python float, anything else unchanged."""
-    a = np.asarray(a)
-    return float(a) if a.ndim == 0 else a
-
-
-def _temperature(x, name: str) -> np.ndarray:
-    a = np.asarray(x, dtype=float)
-    if not np.all(np.isfinite(a)):
-        raise TemperatureError(f"{name} must be a finite temperature in K, found {x!r}")
-    if np.any(a <= 0.0):
-        raise TemperatureError(f"{name} must be above 0 K, found {float(np.min(a)):g} K")
-    return a
-
-
-def _non_negative(x, name: str, unit: str) -> np.ndarray:
-    a = np.asarray(x, dtype=float)
-    if not np.all(np.isfinite(a)) or np.any(a < 0.0):
-        raise InputError(
-            f"{name} cannot be negative or undefined",
-            expected=f"a value of 0 {unit} or more",
-            found=f"{x!r}",
-        )
-    return a
 
 
 def _short(obj, limit: int = 60) -> str:
@@ -180,9 +155,9 @@ def carnot_specific_power(T_cold, T_ambient):
     >>> carnot_specific_power([77.0, 300.0], 300.0).round(3)
     array([2.896, 0.   ])
     """
-    Tc = _temperature(T_cold, "T_cold")
-    T0 = _temperature(T_ambient, "T_ambient")
-    return _out(np.where(Tc < T0, T0 / Tc - 1.0, 0.0))
+    Tc = checks.temperature(T_cold, "T_cold")
+    T0 = checks.temperature(T_ambient, "T_ambient")
+    return checks.scalar(np.where(Tc < T0, T0 / Tc - 1.0, 0.0))
 
 
 def carnot_power(load, T_cold, T_ambient):
@@ -219,8 +194,8 @@ def carnot_power(load, T_cold, T_ambient):
     >>> round(carnot_power(1.5, 4.2, 300.0), 1)
     105.6
     """
-    Q = _non_negative(load, "a heat load", "W")
-    return _out(Q * np.asarray(carnot_specific_power(T_cold, T_ambient)))
+    Q = checks.nonnegative(load, "a heat load", "W")
+    return checks.scalar(Q * np.asarray(carnot_specific_power(T_cold, T_ambient)))
 
 
 def fraction_of_carnot(load, T_cold, T_ambient, input_power):
@@ -277,7 +252,7 @@ def fraction_of_carnot(load, T_cold, T_ambient, input_power):
             expected="an electrical input power above 0 W",
             found=f"{input_power!r}",
         )
-    return _out(np.asarray(carnot_power(load, T_cold, T_ambient)) / P)
+    return checks.scalar(np.asarray(carnot_power(load, T_cold, T_ambient)) / P)
 
 
 def input_power_at_fraction(load, T_cold, T_ambient, fraction):
@@ -324,7 +299,7 @@ def input_power_at_fraction(load, T_cold, T_ambient, fraction):
             expected="a fraction in (0, 1], e.g. 0.02 for 2 % of Carnot",
             found=f"{fraction!r}",
         )
-    return _out(np.asarray(carnot_power(load, T_cold, T_ambient)) / eta)
+    return checks.scalar(np.asarray(carnot_power(load, T_cold, T_ambient)) / eta)
 
 
 # --------------------------------------------------------------------------------------
@@ -416,7 +391,7 @@ def survey_percent_carnot(capacity):
             found=f"{capacity!r} W",
         )
     x = np.minimum(np.log10(Q), _TREND_X_PEAK)
-    return _out(10.0 ** (_TREND_A * x + _TREND_B * x * x))
+    return checks.scalar(10.0 ** (_TREND_A * x + _TREND_B * x * x))
 
 
 def survey_percent_carnot_band(capacity):
@@ -453,8 +428,8 @@ def survey_percent_carnot_band(capacity):
     """
     mid = np.asarray(survey_percent_carnot(capacity))
     return (
-        _out(mid / SURVEY_SCATTER_FACTOR),
-        _out(np.minimum(mid * SURVEY_SCATTER_FACTOR, 100.0)),
+        checks.scalar(mid / SURVEY_SCATTER_FACTOR),
+        checks.scalar(np.minimum(mid * SURVEY_SCATTER_FACTOR, 100.0)),
     )
 
 
@@ -567,7 +542,7 @@ class CapacityCurve:
         a = np.asarray(T, dtype=float)
         if not np.all(np.isfinite(a)) or np.any(a < 0.0):
             raise TemperatureError(f"a stage temperature must be 0 K or above, found {T!r}")
-        return _out(np.interp(a, self._T, self._Q, left=0.0))
+        return checks.scalar(np.interp(a, self._T, self._Q, left=0.0))
 
     def _fast(self, T: np.ndarray) -> np.ndarray:
         return np.interp(T, self._T, self._Q, left=0.0)
@@ -766,7 +741,7 @@ class CapacityMap:
                 raise TemperatureError(f"a stage temperature must be 0 K or above, found {raw!r}")
         a1, a2 = np.broadcast_arrays(a1, a2)
         q1, q2 = self._fast(a1, a2)
-        return _out(q1), _out(q2)
+        return checks.scalar(q1), checks.scalar(q2)
 
     def stage_capacities(self, T: np.ndarray) -> np.ndarray:
         """Capacities of both stages, [W], from the stage-temperature vector ``T`` [K].
@@ -999,8 +974,8 @@ def link_conductance(conductivity_integral, area, length, T_cold, T_warm):
     >>> round(link_conductance(lambda a, b: 2.0 * (b - a), 1e-4, 0.1, 4.0, 50.0), 6)
     0.002
     """
-    Tc = float(_temperature(T_cold, "T_cold"))
-    Tw = float(_temperature(T_warm, "T_warm"))
+    Tc = float(checks.temperature(T_cold, "T_cold"))
+    Tw = float(checks.temperature(T_warm, "T_warm"))
     if Tw <= Tc:
         raise TemperatureError(f"T_warm ({Tw:g} K) must lie above T_cold ({Tc:g} K)")
     return float(area) / float(length) * float(conductivity_integral(Tc, Tw)) / (Tw - Tc)
@@ -1481,15 +1456,15 @@ def simulate_cooldown(
     names = tuple(s.name for s in stages)
     T_start = np.array(
         [
-            float(_temperature(s.initial_temperature, f"start temperature of {s.name!r}"))
+            float(checks.temperature(s.initial_temperature, f"start temperature of {s.name!r}"))
             for s in stages
         ]
     )
     targets = np.array(
-        [float(_temperature(s.target_temperature, f"target of {s.name!r}")) for s in stages]
+        [float(checks.temperature(s.target_temperature, f"target of {s.name!r}")) for s in stages]
     )
     if ambient is not None:
-        ambient = float(_temperature(ambient, "ambient"))
+        ambient = float(checks.temperature(ambient, "ambient"))
     if not (t_max > 0.0 and math.isfinite(t_max)):
         raise InputError(
             "t_max must be a time above 0", expected="seconds above 0", found=_short(t_max)
@@ -1508,7 +1483,7 @@ def simulate_cooldown(
         power_const, power_func = None, input_power
         float(power_func(T_start))  # fails early on a bad function
     else:
-        power_const = float(_non_negative(input_power, "the cooler's input power", "W"))
+        power_const = float(checks.nonnegative(input_power, "the cooler's input power", "W"))
         power_func = None
     T0 = ambient
 
@@ -1804,14 +1779,14 @@ def steady_state(
     (4.1667, False)
     """
     targets = np.array([float(x) for x in np.atleast_1d(np.asarray(targets, dtype=float))])
-    _temperature(targets, "a target temperature")
+    checks.temperature(targets, "a target temperature")
     n = targets.size
     names = tuple(names) if names is not None else tuple(f"stage {i + 1}" for i in range(n))
     if len(names) != n:
         raise InputError("one name per stage", expected=f"{n} names", found=f"{len(names)}")
-    ambient = float(_temperature(ambient, "ambient"))
+    ambient = float(checks.temperature(ambient, "ambient"))
     lo = float(lowest) if lowest is not None else 0.1 * float(targets.min())
-    _temperature(lo, "lowest")
+    checks.temperature(lo, "lowest")
     hi = ambient
     grid = np.geomspace(lo, hi, 800)
     net = _Network(n, names, capacity, load, links, grid, probe=targets.copy())
@@ -1908,12 +1883,12 @@ def reversible_work(enthalpy, entropy, T_start, T_end, T_ambient):
     >>> round(reversible_work(lambda T: T, np.log, 300.0, 150.0, 300.0), 2)
     57.94
     """
-    T1 = _temperature(T_start, "T_start")
-    T2 = _temperature(T_end, "T_end")
-    T0 = _temperature(T_ambient, "T_ambient")
+    T1 = checks.temperature(T_start, "T_start")
+    T2 = checks.temperature(T_end, "T_end")
+    T0 = checks.temperature(T_ambient, "T_ambient")
     dS = np.asarray(entropy(T1), dtype=float) - np.asarray(entropy(T2), dtype=float)
     dH = np.asarray(enthalpy(T1), dtype=float) - np.asarray(enthalpy(T2), dtype=float)
-    return _out(T0 * dS - dH)
+    return checks.scalar(T0 * dS - dH)
 
 
 def reversible_work_from_heat_capacity(heat_capacity, T_start, T_end, T_ambient):
@@ -1951,9 +1926,9 @@ def reversible_work_from_heat_capacity(heat_capacity, T_start, T_end, T_ambient)
     >>> round(reversible_work_from_heat_capacity(lambda T: 1.0, 300.0, 150.0, 300.0), 2)
     57.94
     """
-    T1 = float(_temperature(T_start, "T_start"))
-    T2 = float(_temperature(T_end, "T_end"))
-    T0 = float(_temperature(T_ambient, "T_ambient"))
+    T1 = float(checks.temperature(T_start, "T_start"))
+    T2 = float(checks.temperature(T_end, "T_end"))
+    T0 = float(checks.temperature(T_ambient, "T_ambient"))
 
     def integrand(T: float) -> float:
         return float(np.asarray(heat_capacity(T), dtype=float)) * (T0 / T - 1.0)
