@@ -25,6 +25,7 @@ def main() -> None:
     from cryoplan.data.fluids import cryogen
     from cryoplan.data.materials import material
     from cryoplan.physics import heatloads as hl
+    from cryoplan.physics.heatloads import vapor as hl_vapor
 
     copper, steel, he = material("copper"), material("stainless-304"), cryogen("helium")
     k_cu = copper.conductivity
@@ -70,7 +71,7 @@ def main() -> None:
         )
 
     tabulated = best(solve, 3)
-    shipped = hl._FastScalar
+    shipped = hl_vapor._FastScalar
 
     class Direct:  # the objects themselves at every call
         def __init__(self, f, T_lo, T_hi, n=0):
@@ -79,12 +80,12 @@ def main() -> None:
         def __call__(self, T):
             return float(self.f(T))
 
-    hl._FastScalar = Direct
+    hl_vapor._FastScalar = Direct
     try:
         q_direct = solve()
         direct = best(solve, 2)
     finally:
-        hl._FastScalar = shipped
+        hl_vapor._FastScalar = shipped
     q_tab = solve()
     print(
         f"vapour-cooled lead, tabulated {tabulated * 1e3:.1f} ms, direct {direct * 1e3:.1f} ms: "
