@@ -38,6 +38,8 @@ __all__ = [
     "positive",
     "fraction",
     "scalar",
+    "is_number",
+    "short",
 ]
 
 
@@ -166,3 +168,24 @@ def scalar(value):
     """
     arr = np.asarray(value)
     return float(arr) if arr.ndim == 0 else arr
+
+
+def is_number(x) -> bool:
+    """A real number given as such: int or float (numpy's too), not a bool, not a string.
+
+    >>> is_number(4.2), is_number(True), is_number("4.2")
+    (True, False, False)
+    """
+    return isinstance(x, (int, float, np.integer, np.floating)) and not isinstance(
+        x, (bool, np.bool_)
+    )
+
+
+def short(obj, limit: int = 60) -> str:
+    """``repr(obj)`` cut to ``limit`` characters, for the ``found`` part of a message.
+
+    >>> short(list(range(30)), 20)
+    '[0, 1, 2, 3, 4, 5...'
+    """
+    text = repr(obj)
+    return text if len(text) <= limit else text[: limit - 3] + "..."
