@@ -19,6 +19,8 @@ __all__ = [
     "carnot_specific_power",
     "load_plan",
     "evaluate",
+    "salt_ids",
+    "salt",
 ]
 
 _LAZY = {
@@ -30,6 +32,8 @@ _LAZY = {
     "carnot_specific_power": "physics.refrigeration",
     "load_plan": "plan",
     "evaluate": "evaluation",
+    "salt_ids": "data.salts",
+    "salt": "data.salts",
 }
 
 

@@ -18,6 +18,7 @@ from .errors import CryoplanError
 COMMAND_MODULES = [
     "print_budget",
     "materials",
+    "salts",
     "fluids",
     "dashboard",
     "compare",
