@@ -9,6 +9,7 @@ default, so that reading goes on.
 
 from __future__ import annotations
 
+import datetime as _dt
 import math
 import reprlib
 from typing import Any
@@ -28,9 +29,11 @@ _SHORT.maxlist = _SHORT.maxtuple = _SHORT.maxdict = 6
 def shown(value: Any) -> str:
     """``repr`` of a value found in a plan, cut short when long or deeply nested.
 
-    >>> shown("4 K"), shown([[[[[1]]]]])
-    ("'4 K'", '[[[[...]]]]')
+    >>> shown("4 K"), shown([[[[[1]]]]] * 50)[:12]
+    ("'4 K'", '[[[[...]]], ')
     """
+    if isinstance(value, (_dt.date, _dt.time)):
+        return value.isoformat()  # as the plan writes it, not datetime.date(...)
     try:
         text = repr(value)
     except RecursionError:

@@ -120,14 +120,19 @@ def _step(reader: _Reader, sraw, i: int, previous: float, plan_notes) -> Step | 
 
 def read_baths(
     reader: _Reader, raw_list, stages: list[Stage], stage_names: list[str]
-) -> list[Bath]:
-    """The baths; ``stage_names`` are every stage written, valid or not."""
+) -> tuple[list[Bath], set[str]]:
+    """The valid baths, and the stages every bath written names (valid or not), so that a
+    load needing a bath is not refused again for a bath with a mistake of its own;
+    ``stage_names`` are every stage written, valid or not."""
     baths = []
+    named = set()
     for i, raw in enumerate(reader.array(raw_list, "bath")):
+        if isinstance(raw, dict) and isinstance(raw.get("stage"), str):
+            named.add(raw["stage"].strip())
         bath = _bath(reader, raw, i, {s.name: s for s in stages}, stage_names)
         if bath is not None:
             baths.append(bath)
-    return baths
+    return baths, named
 
 
 def _bath(reader: _Reader, raw, i: int, names: dict[str, Stage], stage_names) -> Bath | None:

@@ -16,7 +16,6 @@ from .schema import (
     LOAD_KEYS,
     MAX_LAYERS,
     MLI_DEGRADATION,
-    Bath,
     Load,
     Stage,
 )
@@ -26,11 +25,11 @@ LEAD_COOLING = ("conduction", "vapor")
 
 
 def read_loads(
-    reader: _Reader, raw_list, stages: list[Stage], stage_names: list[str], baths: list[Bath]
+    reader: _Reader, raw_list, stages: list[Stage], stage_names: list[str], bath_stages: set[str]
 ) -> list[Load]:
-    """The loads; ``stage_names`` are every stage written, valid or not."""
+    """The loads; ``stage_names`` are every stage written, ``bath_stages`` every stage a bath
+    is written on (valid or not)."""
     temps = {s.name: s.temperature for s in stages}
-    bath_stages = {b.stage for b in baths}
     loads = []
     for i, raw in enumerate(reader.array(raw_list, "load")):
         load = _load(reader, raw, f"load[{i}]", temps, stage_names, bath_stages)

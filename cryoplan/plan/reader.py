@@ -222,10 +222,10 @@ def parse_plan(text: str, path: str = "<plan>") -> Plan:
         cooldown, start_ok = read_cooldown(reader, data.get("cooldown"), stages, ambient, notes)
         if start_ok:
             material_range_check(reader, stages, cooldown.start)
-        baths = read_baths(reader, data.get("bath"), stages, stage_names)
+        baths, bath_stages = read_baths(reader, data.get("bath"), stages, stage_names)
         supplies = read_supplies(reader, data.get("supply"))
         inserts = read_inserts(reader, data.get("insert"), ambient)
-        loads = read_loads(reader, data.get("load"), stages, stage_names, baths)
+        loads = read_loads(reader, data.get("load"), stages, stage_names, bath_stages)
         cooler = read_cooler(reader, data.get("cooler"), stages, stage_names)
         rooms = read_rooms(reader, data.get("room"))
         margin = reader.table(data.get("margin", {}), "margin")
