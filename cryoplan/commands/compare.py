@@ -142,7 +142,7 @@ def _verdict(comparison: dict) -> str:
 
 def _cautions(comparison: dict) -> list[str]:
     if any(r["key"].startswith("lowest_oxygen") for r in comparison["rows"]):
-        from ..physics.oxygen import PLANNING_AID_NOTICE
+        from ..report.cautions import PLANNING_AID_NOTICE
 
         return [PLANNING_AID_NOTICE]
     return []

@@ -13,6 +13,7 @@ import numpy as np
 
 from ..physics import oxygen as safety
 from ..plan.reader import Plan
+from .rooms_verdict import room_verdict
 
 #: Normal boil-off of a storage dewar when the plan gives none: about 1 % of its contents
 #: a day for helium and nitrogen transport dewars (common practice; makers' figures range
@@ -215,7 +216,7 @@ def _room_entry(room, vessels) -> dict:
             for c in out_cases
             if math.isfinite(c["_a"].time_to_recover_s)
         ]
-        verdict = safety.room_verdict(
+        verdict = room_verdict(
             worst["lowest_percent"],
             min(c["_a"].time_to_alarm_s for c in out_cases),
             room.alarm,

@@ -66,7 +66,7 @@ def _summary(data: dict) -> list:
         rows.append(["Lowest oxygen, worst room case", f"{s['lowest_oxygen_percent']:.1f} %"])
     blocks = [Heading("Summary"), Table(["Figure", "Value"], rows, "ll", name="summary")]
     if s.get("lowest_oxygen_percent") is not None:
-        from ..physics.oxygen import DEFERRAL
+        from .cautions import DEFERRAL
 
         blocks.append(
             Paragraph(
@@ -312,7 +312,7 @@ def _closing(data: dict) -> list:
 
 
 def _cautions(data: dict) -> list[tuple[str, str]]:
-    from ..physics.oxygen import CAUTIONS, PLANNING_AID_NOTICE
+    from .cautions import CAUTIONS, PLANNING_AID_NOTICE
 
     picked = list(CAUTIONS)
     return picked + [("Planning aid", PLANNING_AID_NOTICE)]

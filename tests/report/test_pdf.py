@@ -110,7 +110,7 @@ def test_every_source_named(example):
 
 
 def test_cautions_printed(example):
-    from cryoplan.physics.oxygen import CAUTIONS
+    from cryoplan.report.cautions import CAUTIONS
 
     text = _squash(example["text"])
     for caution in CAUTIONS:
