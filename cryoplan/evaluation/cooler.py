@@ -1,19 +1,19 @@
-"""Refrigeration of a plan: Carnot against real work, steady state, cooldown-time simulation.
+"""The cooler step: Carnot against real work, steady state, cooldown-time simulation.
 
-An evaluation hook (see :mod:`cryoplan.evaluation`): reads the plan's ``[cooler]``, writes
-``data["refrigeration"]`` and the summary's ``cooldown_time_h``. The physics is in
-:mod:`cryoplan.refrigeration`; the static loads come from :mod:`cryoplan.eval_loads`.
+Reads the plan's ``[cooler]`` and the loads step's static table; returns a
+:class:`~cryoplan.evaluation.results.CoolerResult`. The physics is in
+:mod:`cryoplan.physics.refrigeration`; each load's heat during the cooldown comes from its
+kind's function in :mod:`cryoplan.evaluation.load_kinds`.
 """
 
 from __future__ import annotations
 
-import math
-
 import numpy as np
 
 from ..errors import InputError
-from ..physics import heatloads as hl
-from ..plan.reader import Plan
+from ..plan import Plan
+from .load_kinds import LoadContext, load_ends, load_heat, load_kind, tabulated_integral
+from .results import CoolerResult, LoadsResult
 
 SOURCE = (
     "Refrigerator efficiency trend against capacity: T. R. Strobridge, Cryogenic "
@@ -22,122 +22,90 @@ SOURCE = (
 )
 
 
-def _k_table(material_id: str, rrr, t_lo: float, t_hi: float):
-    """Running conductivity integral K(T) = int_{t_lo}^{T} k dT on a log grid, for np.interp."""
-    from ..data.materials import material
-
-    m = material(material_id)
-    grid = np.geomspace(t_lo, t_hi, 200)
-    values = np.asarray(
-        m.conductivity_integral(np.full_like(grid, t_lo), grid, rrr=rrr, extrapolate=True), float
-    )
-    return grid, values
-
-
-def _load_function(plan: Plan, names: list[str], t_lo: float, t_hi: float, steady_items):
+def load_function(plan: Plan, names: list[str], t_lo: float, t_hi: float, steady_items):
     """Static loads as a vectorised function of the stage-temperature vector (for the sim).
 
-    Radiation (bare and MLI), supports and wires follow the stage temperatures; leads,
-    necks and residual gas are held at their cold-state values (noted in the report).
+    Each load's heat comes from its kind's function (:data:`LOAD_KINDS`), the same the
+    static table calls, here with the simulation's context: conductivity integrals
+    tabulated per material between ``t_lo`` and ``t_hi`` [K], multilayer insulation with
+    its degradation factor. Radiation, supports and wires follow the stage temperatures;
+    fixed loads are constant; leads, necks and residual gas are held at their values in the
+    static table ``steady_items`` (noted in the report).
+
+    Returns
+    -------
+    (callable, list of str)
+        ``load_fn(T)`` with T of shape (stages,) or (stages, m) -> W of the same shape, and
+        the names of the loads held.
     """
     index = {n: i for i, n in enumerate(names)}
-    terms = []
+    ctx = LoadContext(
+        plan,
+        static=False,
+        mli_degradation=True,
+        integral=lambda mid, rrr: tabulated_integral(mid, rrr, t_lo, t_hi),
+    )
+    follows = []
     fixed = np.zeros(len(names))
     held = []
     for load in plan.loads:
-        v = load.values
-        i = index[load.stage]
-        j = index.get(v.get("from_stage")) if v.get("from_stage") else None
-        t_from = v.get("from")
-        if load.kind == "fixed":
-            fixed[i] += v["power"]
-        elif load.kind == "radiation":
-            if v["layers"]:
-
-                def term(T, i=i, j=j, t_from=t_from, v=v):
-                    tw = T[j] if j is not None else t_from
-                    tc = T[i]
-                    return i, np.where(
-                        tw > tc,
-                        hl.mli_load(
-                            v["area"],
-                            np.minimum(tc, tw),
-                            np.maximum(tw, tc + 1e-9),
-                            v["layers"],
-                            v["layer_density"] or 2000.0,
-                            degradation=v["degradation"],
-                        ),
-                        0.0,
-                    )
-            else:
-                ec, ew = v["emissivity"]
-
-                def term(T, i=i, j=j, t_from=t_from, v=v, ec=ec, ew=ew):
-                    tw = T[j] if j is not None else t_from
-                    tc = T[i]
-                    return i, hl.gray_body_exchange(v["area"], tc, tw, ec, ew, v["area_ratio"])
-
-            terms.append(term)
-        elif load.kind in ("support", "wire"):
-            grid, kint = _k_table(v["material"], v.get("rrr"), t_lo, t_hi)
-            if load.kind == "wire":
-                d = hl.awg_diameter(v["gauge"]) if "gauge" in v else v["diameter"]
-                area = math.pi / 4 * d * d
-            else:
-                area = v["area"]
-            chain = [j if j is not None else ("T", t_from)] + [index[s] for s in v["via"]] + [i]
-            seg = v["length"] / (len(chain) - 1)
-            g = v["count"] * area / seg
-
-            def term(T, chain=chain, grid=grid, kint=kint, g=g):
-                temps = [np.full_like(T[0], c[1]) if isinstance(c, tuple) else T[c] for c in chain]
-                flows = [
-                    g * (np.interp(a, grid, kint) - np.interp(b, grid, kint))
-                    for a, b in zip(temps, temps[1:])
-                ]
-                out = []
-                for k, node in enumerate(chain[1:]):
-                    arriving = flows[k] - (flows[k + 1] if k + 1 < len(flows) else 0.0)
-                    out.append((node, arriving))
-                return out
-
-            terms.append(term)
+        kind = load_kind(load)
+        if kind.in_simulation == "follows":
+            for mid in {load.values.get("material")} - {None}:
+                ctx.k_integral(mid, load.values.get("rrr"))  # tabulate once, before the run
+            follows.append((load, kind))
+        elif kind.in_simulation == "constant":
+            temps = {s.name: s.temperature for s in plan.stages}
+            for stage, power in load_heat(load, temps, ctx):
+                fixed[index[stage]] += power
         else:
+            v = load.values
             power = sum(
                 it["power_W"]
                 for it in steady_items
                 if it["name"] == v.get("name") and it["stage"] == load.stage
             )
-            fixed[i] += power
+            fixed[index[load.stage]] += power
             held.append(v.get("name", load.kind))
+
+    class _Stages:
+        """The temperature rows of T by stage name."""
+
+        def __init__(self, T):
+            self.T = T
+
+        def __getitem__(self, name):
+            return self.T[index[name]]
 
     def load_fn(T):
         T = np.asarray(T, float)
         out = np.zeros_like(T) + (fixed[:, None] if T.ndim == 2 else fixed)
-        for term in terms:
-            result = term(T)
-            if isinstance(result, tuple):
-                result = [result]
-            for node, power in result:
-                out[node] = out[node] + power
+        temps = _Stages(T)
+        for load, kind in follows:
+            t_cold, t_warm, via = load_ends(load, temps)
+            for stage, power in kind.heat(load, t_cold, t_warm, ctx, via):
+                k = index[stage]
+                out[k] = out[k] + power
         return out
 
     return load_fn, held
 
 
-def analyse_cooler(plan: Plan, data: dict) -> None:
-    """Evaluation hook: refrigeration table, steady state and cooldown simulation."""
+def cooler_step(plan: Plan, loads: LoadsResult) -> CoolerResult | None:
+    """The cooler step: refrigeration table, steady state and cooldown simulation.
+
+    Reads the static table of the loads step (``loads.items``, ``loads.totals``); None
+    when the plan has no ``[cooler]``.
+    """
     cooler = plan.cooler
     if cooler is None:
-        return
+        return None
     from ..data.materials import material
     from ..physics import refrigeration as rf
-    from .loads import stage_loads
 
     names = [s.name for s in plan.stages]
     targets = np.array([s.temperature for s in plan.stages])
-    temps = {s.name: s.temperature for s in plan.stages}
-    items, totals = stage_loads(plan, temps)
+    items, totals = loads.items, loads.totals
     load_at_target = np.array([totals.get(n, 0.0) for n in names])
     curves: list = [None] * len(names)
     for cs in cooler.stages:
@@ -195,7 +163,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
             )
     t_lo = max(0.25 * float(targets.min()), 0.5)
     t_hi = max(plan.cooldown.start, plan.ambient) * 1.01
-    load_fn, held = _load_function(plan, names, t_lo, t_hi, items)
+    load_fn, held = load_function(plan, names, t_lo, t_hi, items)
 
     def capacity_fn(T):
         T = np.asarray(T, float)
@@ -210,6 +178,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
         return out
 
     stages_out = []
+    cooldown_time_h = None
     has_capacity = any(c is not None for c in curves) or cmap is not None
     steady = None
     notes = []
@@ -341,7 +310,7 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
             "stages": {n: temps_curve[k].tolist() for k, n in enumerate(names)},
         }
         if sim.cooldown_time is not None:
-            data["summary"]["cooldown_time_h"] = float(sim.cooldown_time) / 3600
+            cooldown_time_h = float(sim.cooldown_time) / 3600
         if sim.not_reached:
             notes.append(
                 "Not at target when the simulation stopped ("
@@ -349,5 +318,4 @@ def analyse_cooler(plan: Plan, data: dict) -> None:
             )
         if held:
             notes.append("Held at their cold values during the cooldown: " + ", ".join(held))
-    data["refrigeration"] = result
-    data.setdefault("sources", []).append(SOURCE)
+    return CoolerResult(result, cooldown_time_h, [SOURCE])

@@ -1,7 +1,7 @@
-"""Room oxygen checks of a plan: the cases of every room, run through :mod:`cryoplan.safety`.
+"""The rooms step: the oxygen cases of every room, run through :mod:`cryoplan.physics.oxygen`.
 
-An evaluation hook (see :mod:`cryoplan.evaluation`): reads the plan, writes ``data["rooms"]``
-and the summary's ``lowest_oxygen_percent``. The physics is in :mod:`cryoplan.safety`.
+Reads the plan's rooms and the loads step's bath boil-off; returns a
+:class:`~cryoplan.evaluation.results.RoomsResult`.
 """
 
 from __future__ import annotations
@@ -12,7 +12,8 @@ import math
 import numpy as np
 
 from ..physics import oxygen as safety
-from ..plan.reader import Plan
+from ..plan import Plan
+from .results import LoadsResult, RoomsResult
 from .rooms_verdict import room_verdict
 
 #: Normal boil-off of a storage dewar when the plan gives none: about 1 % of its contents
@@ -34,12 +35,12 @@ SOURCE = (
 )
 
 
-def _vessels(plan: Plan, room, data: dict) -> list[dict]:
-    """The vessels of a room: listed ones, plus the cryostat's baths where included."""
+def _vessels(plan: Plan, room, loads: LoadsResult | None) -> list[dict]:
+    """The vessels of a room: listed ones, plus the cryostat's baths where included (their
+    boil-off from the loads step)."""
     from ..data.fluids import cryogen
 
     out = []
-    static = data.get("loads", {}).get("baths", [])
     for v in room.vessels:
         fluid = cryogen(v.cryogen)
         boil = v.boiloff
@@ -65,12 +66,8 @@ def _vessels(plan: Plan, room, data: dict) -> list[dict]:
     if room.include_baths:
         for b in plan.baths:
             fluid = cryogen(b.cryogen)
-            boil = None
-            for entry in static:
-                if entry.get("name") == b.name:
-                    boil = entry.get("boiloff_L_per_h", 0.0) / 1000.0 / 3600.0
-            if boil is None:
-                boil = 0.0
+            found = loads.boiloff_of(b.name) if loads is not None and loads.shown else None
+            boil = 0.0 if found is None else float(found.rate_m3_s)
             out.append(
                 {
                     "name": b.name,
@@ -258,21 +255,29 @@ def _room_entry(room, vessels) -> dict:
     return entry
 
 
-def analyse_rooms(plan: Plan, data: dict) -> None:
-    """Evaluation hook: oxygen cases, verdicts and cautions for every room."""
+ASSUMPTION = (
+    "Rooms: the released gas mixes evenly through the room at once (well-mixed model); "
+    "dewars without a boil-off figure lose 1 % of their contents a day (common "
+    "practice); a ventilation failure is followed for 8 h."
+)
+
+
+def rooms_step(plan: Plan, loads: LoadsResult | None = None) -> RoomsResult | None:
+    """The rooms step: oxygen cases, verdicts and cautions for every room; None without rooms.
+
+    The baths' continuous boil-off comes from the loads step (``loads.boiloff``).
+    """
     if not plan.rooms:
-        return
+        return None
     rooms_out = []
     worst_all = None
     for room in plan.rooms:
-        vessels = _vessels(plan, room, data)
-        entry = _room_entry(room, vessels)
-        worst = None if entry["lowest_percent"] is None else entry
+        entry = _room_entry(room, _vessels(plan, room, loads))
         rooms_out.append(entry)
-        if worst is not None and (worst_all is None or worst["lowest_percent"] < worst_all):
-            worst_all = worst["lowest_percent"]
-    data["rooms"] = rooms_out
-    data["oxygen_effects"] = [
+        low = entry["lowest_percent"]
+        if low is not None and (worst_all is None or low < worst_all):
+            worst_all = low
+    effects = [
         {
             "from_percent": b.low_percent,
             "to_percent": b.high_percent,
@@ -281,13 +286,8 @@ def analyse_rooms(plan: Plan, data: dict) -> None:
         }
         for b in safety.OXYGEN_EFFECTS
     ]
-    data["summary"]["lowest_oxygen_percent"] = worst_all
-    data.setdefault("sources", []).append(SOURCE)
+    sources = [SOURCE]
     for b in safety.OXYGEN_EFFECTS:
-        if b.source not in data["sources"]:
-            data["sources"].append(b.source)
-    data.setdefault("assumptions", []).append(
-        "Rooms: the released gas mixes evenly through the room at once (well-mixed model); "
-        "dewars without a boil-off figure lose 1 % of their contents a day (common "
-        "practice); a ventilation failure is followed for 8 h."
-    )
+        if b.source not in sources:
+            sources.append(b.source)
+    return RoomsResult(rooms_out, effects, worst_all, sources, [ASSUMPTION])

@@ -9,10 +9,16 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from ..plan import DEFAULT_TRANSFER_LOSS, DEFAULT_TRANSFER_LOSS_OTHER, Plan
+from .budget import CASES
+from .results import BudgetResult, CooldownLitres, Figure, OrderResult
 
 
 def transfer_loss(plan: Plan, cryogen: str, override: float | None) -> float:
+    """The transfer loss of a cryogen: the entry's own, else the supply's, else the default
+    of common practice (:data:`cryoplan.plan.DEFAULT_TRANSFER_LOSS`)."""
     if override is not None:
         return override
     supply = plan.supplies.get(cryogen)
@@ -53,34 +59,58 @@ def choose_dewars(needed_L: float, sizes_L: list[float], heel_L: float) -> list[
     return [(s, n) for s, n in zip(sizes, counts) if n]
 
 
-def order(
-    plan: Plan, cooldown_L: dict[str, float], inserts_L: dict[str, float], steps: list[dict]
+def order_litres(
+    plan: Plan, litres: CooldownLitres, losses: dict[str, Figure] | None = None
 ) -> dict[str, dict]:
-    """What to order per cryogen: cooldown + bath fill + inserts + transfer losses + heels."""
+    """What to order per cryogen: cooldown + bath fill + inserts + transfer losses + heels.
+
+    Parameters
+    ----------
+    plan : Plan
+    litres : CooldownLitres
+        The litres of one case (from :func:`cryoplan.evaluation.budget.cooldown_litres`).
+    losses : dict, optional
+        Transfer loss per cryogen in place of the plan's (every step, bath and insert of
+        that cryogen), [-]; floats or arrays of shape (n,).
+
+    Returns
+    -------
+    dict
+        Cryogen -> the order entry of the JSON. With arrays (of litres or of losses) the
+        litres are arrays of shape (n,) and no dewars are chosen (``order_L`` is then
+        the litres needed; dewar rounding is for one plan at a time).
+    """
+    losses = losses or {}
+    cooldown_L, inserts_L = litres.cooldown_L, litres.inserts_L
     cryogens = set(cooldown_L) | set(inserts_L) | {b.cryogen for b in plan.baths}
     order = {}
     for cry in sorted(cryogens):
-        transferred = 0.0
-        delivered = 0.0
-        for step, s in zip(plan.cooldown.steps, steps):
+
+        def loss_of(override, cry=cry):
+            return losses[cry] if cry in losses else transfer_loss(plan, cry, override)
+
+        transferred: Figure = 0.0
+        delivered: Figure = 0.0
+        for step, s in zip(plan.cooldown.steps, litres.steps):
             if step.cryogen == cry:
-                loss = transfer_loss(plan, cry, step.transfer_loss)
-                delivered += s["liquid_L"]
-                transferred += s["liquid_L"] / (1 - loss)
+                loss = loss_of(step.transfer_loss)
+                delivered = delivered + s["liquid_L"]
+                transferred = transferred + s["liquid_L"] / (1 - loss)
         fill = 0.0
         for bath in plan.baths:
             if bath.cryogen == cry:
-                loss = transfer_loss(plan, cry, bath.transfer_loss)
+                loss = loss_of(bath.transfer_loss)
                 fill += bath.volume * 1000
-                transferred += bath.volume * 1000 / (1 - loss)
+                transferred = transferred + bath.volume * 1000 / (1 - loss)
         ins = inserts_L.get(cry, 0.0)
-        transferred += ins / (1 - transfer_loss(plan, cry, None))
-        delivered += fill + ins
+        transferred = transferred + ins / (1 - loss_of(None))
+        delivered = delivered + fill + ins
         supply = plan.supplies.get(cry)
         heel = supply.heel * 1000 if supply else 0.0
+        scalar = np.ndim(transferred) == 0
         dewars = (
             choose_dewars(transferred, [d * 1000 for d in supply.dewars], heel)
-            if (supply and supply.dewars)
+            if (scalar and supply and supply.dewars)
             else []
         )
         n_dewars = sum(n for _, n in dewars)
@@ -101,6 +131,31 @@ def order(
         }
         order[cry] = entry
     return order
+
+
+def supply_and_order(plan: Plan, budget: BudgetResult) -> OrderResult:
+    """The supply-and-order step: each case's order, the nominal one with its range, and the
+    ideal (and the supplier's) liquefaction work of what is ordered."""
+    cases = {case: order_litres(plan, budget.cases[case]) for case in CASES}
+    merged = {
+        cry: {
+            **entry,
+            "range": {
+                c: {
+                    "order_L": cases[c].get(cry, {}).get("order_L"),
+                    "needed_L": cases[c].get(cry, {}).get("needed_L"),
+                    "cost": cases[c].get(cry, {}).get("cost"),
+                }
+                for c in CASES
+            },
+        }
+        for cry, entry in cases["nominal"].items()
+    }
+    steps_range = [
+        {"step": s["step"], **{c: budget.cases[c].steps[i]["liquid_L"] for c in CASES}}
+        for i, s in enumerate(budget.cases["nominal"].steps)
+    ]
+    return OrderResult(cases, merged, steps_range, liquefaction(plan, merged))
 
 
 def liquefaction(plan: Plan, order: dict[str, dict]) -> dict[str, dict]:
