@@ -4,7 +4,7 @@
 order, loads, cooler, rooms, then the invariants. Each step is a plain function of its own
 module; it takes the plan and the typed results of earlier steps and returns a typed result
 (:mod:`cryoplan.evaluation.results`). Views (text, Markdown, JSON, PDF, the dashboard) read
-:meth:`Results.to_dict`, assembled in :mod:`cryoplan.evaluation.to_json`; they compute no
+:meth:`Results.to_dict`, assembled in :func:`cryoplan.evaluation.results.results_to_dict`; they compute no
 physics.
 """
 

@@ -20,41 +20,24 @@ from __future__ import annotations
 import math
 from dataclasses import asdict, dataclass
 
+from .summary import label_and_unit
+
+__all__ = [
+    "SAME_RELATIVE",
+    "ZERO_WHEN_MISSING",
+    "Row",
+    "compare_results",
+    "compare_summaries",
+    "flatten",
+    "label_and_unit",
+]
+
 #: Summary keys whose figures are amounts: a cryogen absent from a plan is none of it.
 ZERO_WHEN_MISSING = ("cooldown_liquid_L", "order_L", "cost", "static_boiloff_L_per_day")
 
 #: Relative difference below which two figures count as the same (floating-point noise of
 #: two evaluations; far below the 3 significant figures printed).
 SAME_RELATIVE = 1e-9
-
-#: Labels and units of the summary keys of DESIGN.md; other keys get a label from their
-#: name and a unit from their suffix (see :func:`label_and_unit`).
-LABELS = {
-    "cooldown_liquid_L": ("Cooldown liquid", "L"),
-    "order_L": ("Order", "L"),
-    "static_boiloff_L_per_day": ("Static boil-off", "L/day"),
-    "hold_time_h": ("Hold time", "h"),
-    "minimum_work_J": ("Minimum work", "J"),
-    "cooldown_time_h": ("Cooldown time", "h"),
-    "lowest_oxygen_percent": ("Lowest oxygen", "%"),
-    "heat_J": ("Heat to remove", "J"),
-    "cost": ("Cost", ""),
-}
-
-_SUFFIX_UNITS = (
-    ("_L_per_day", "L/day"),
-    ("_J_per_K", "J/K"),
-    ("_percent", "%"),
-    ("_kWh", "kWh"),
-    ("_L", "L"),
-    ("_J", "J"),
-    ("_h", "h"),
-    ("_K", "K"),
-    ("_W", "W"),
-    ("_kg", "kg"),
-    ("_s", "s"),
-    ("_m3", "m^3"),
-)
 
 
 @dataclass
@@ -85,34 +68,6 @@ def flatten(summary: dict, prefix: str = "") -> dict:
         else:
             out[name] = value
     return out
-
-
-def label_and_unit(key: str, currency: str = "") -> tuple[str, str]:
-    """A reader's label and the unit of a flattened summary key.
-
-    >>> label_and_unit("order_L.helium")
-    ('Order, helium', 'L')
-    >>> label_and_unit("cost.helium", "USD")
-    ('Cost, helium', 'USD')
-    >>> label_and_unit("peak_heat_load_W.shield")
-    ('Peak heat load, shield', 'W')
-    """
-    top, _, rest = key.partition(".")
-    if top in LABELS:
-        label, unit = LABELS[top]
-    else:
-        unit = ""
-        stem = top
-        for suffix, u in _SUFFIX_UNITS:
-            if top.endswith(suffix):
-                unit, stem = u, top[: -len(suffix)]
-                break
-        label = stem.replace("_", " ").strip().capitalize() or top
-    if top == "cost":
-        unit = currency
-    if rest:
-        label = f"{label}, {rest.replace('.', ', ')}"
-    return label, unit
 
 
 def _number(value) -> float | None:

@@ -3,9 +3,9 @@
 Each step of :func:`cryoplan.evaluation.chain.evaluate` returns one of these dataclasses; a
 later step reads an earlier step's attributes, never a dictionary it parses back. Inner
 rows (a part of the cold mass, a load of the static table, a room case) stay lists of plain
-dicts where they are the JSON's own rows. :meth:`Results.to_dict` (in
-:mod:`cryoplan.evaluation.to_json`) is the one place where the JSON of ``--format json`` is
-assembled from them.
+dicts where they are the JSON's own rows. :meth:`Results.to_dict` (:func:`results_to_dict`, at
+the end of this module) is the one place where the JSON of ``--format json`` is assembled
+from them, with the keys and their order of every earlier version.
 
 Figures that a plan gives as numbers (a mass, a transfer loss, a load factor) may be numpy
 arrays of shape (n,) in the steps that accept them: n variants of one plan in one pass
@@ -16,11 +16,13 @@ arrays of shape (n,) in the steps that accept them: n variants of one plan in on
 
 from __future__ import annotations
 
+import datetime as _dt
 from dataclasses import dataclass, field
 from typing import Any
 
 import numpy as np
 
+from .. import __version__
 from ..plan import Plan
 
 #: A figure of one plan (float) or of n variants of it (ndarray of shape (n,)).
@@ -179,8 +181,6 @@ class Results:
     def to_dict(self) -> dict[str, Any]:
         """The JSON of ``--format json`` (built once, then the same dict is returned)."""
         if self._dict is None:
-            from .to_json import results_to_dict
-
             self._dict = results_to_dict(self)
         return self._dict
 
@@ -191,3 +191,69 @@ class Results:
     @property
     def summary(self) -> dict[str, Any]:
         return self.to_dict()["summary"]
+
+
+# --- the JSON ---------------------------------------------------------------------------
+
+
+def summary_dict(results: Results) -> dict[str, Any]:
+    """The ``summary`` object: the keys of :data:`cryoplan.evaluation.summary.SUMMARY_FIELDS`
+    (``month_order_L`` only where the plan has loads or baths)."""
+    budget, order, loads = results.budget, results.order, results.loads
+    s: dict[str, Any] = {
+        "cooldown_liquid_L": dict(budget.cases["nominal"].cooldown_L),
+        "order_L": order.order_L,
+        "static_boiloff_L_per_day": loads.boiloff_L_per_day if loads.shown else {},
+        "hold_time_h": loads.hold_time_h if loads.shown else {},
+        "minimum_work_J": budget.minimum_work_J,
+        "cooldown_time_h": results.cooler.cooldown_time_h if results.cooler else None,
+        "lowest_oxygen_percent": results.rooms.lowest_oxygen_percent if results.rooms else None,
+        "cost": order.cost,
+        "currency": order.currency,
+        "heat_J": budget.heat_J,
+    }
+    if loads.shown:
+        s["month_order_L"] = loads.month_order_L
+    return s
+
+
+def results_to_dict(results: Results) -> dict[str, Any]:
+    """The JSON report of one evaluation (see the module's text)."""
+    plan = results.plan
+    budget, order, loads = results.budget, results.order, results.loads
+    nominal = budget.cases["nominal"]
+    data: dict[str, Any] = {"summary": summary_dict(results)}
+    data["plan"] = {
+        "title": plan.title,
+        "file": plan.path,
+        "ambient_K": plan.ambient,
+        "cooldown_start_K": plan.cooldown.start,
+        "mass_margin": plan.mass_margin,
+        "cryoplan_version": __version__,
+        "date": _dt.date.today().isoformat(),
+    }
+    data["cold_mass"] = results.materials.cold_mass
+    data["budget"] = budget.budget
+    data["cumulative_liquid"] = nominal.curves
+    data["inserts"] = budget.inserts
+    data["steps"] = nominal.steps
+    data["order"] = order.order
+    data["steps_range"] = order.steps_range
+    data["liquefaction"] = order.liquefaction
+    if loads.shown:
+        data["loads"] = {
+            "items": loads.items,
+            "by_stage": loads.by_stage,
+            "baths": loads.baths,
+            "notes": loads.notes,
+            "start_date": loads.start_date,
+        }
+    if results.cooler is not None:
+        data["refrigeration"] = results.cooler.refrigeration
+    if results.rooms is not None:
+        data["rooms"] = results.rooms.rooms
+        data["oxygen_effects"] = results.rooms.oxygen_effects
+    data["sources"] = list(results.sources)
+    data["notes"] = list(plan.notes)
+    data["assumptions"] = list(results.assumptions)
+    return data

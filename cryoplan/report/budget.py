@@ -23,32 +23,34 @@ def _sections() -> list:
 
 
 def _summary(data: dict) -> list:
+    from ..evaluation.summary import report_label as label
+
     s = data["summary"]
     rows = []
     for cry, v in s["cooldown_liquid_L"].items():
-        rows.append([f"Cooldown liquid, {cry}", f"{litres(v)} L"])
+        rows.append([label("cooldown_liquid_L", cry), f"{litres(v)} L"])
     for cry, v in s["order_L"].items():
         rng = data["order"][cry]["range"]
         rows.append(
             [
-                f"Order, {cry}",
+                label("order_L", cry),
                 f"{litres(v)} L  (low {litres(rng['low']['order_L'])},"
                 f" high {litres(rng['high']['order_L'])})",
             ]
         )
     for cry, v in s.get("cost", {}).items():
-        rows.append([f"Cost, {cry}", money(v, s.get("currency", ""))])
-    rows.append(["Heat to remove", energy(s.get("heat_J"))])
+        rows.append([label("cost", cry), money(v, s.get("currency", ""))])
+    rows.append([label("heat_J"), energy(s.get("heat_J"))])
     rows.append(
         [
-            "Minimum work (reversible)",
+            label("minimum_work_J"),
             energy(s["minimum_work_J"]) + f" = {sig(s['minimum_work_J'] / 3.6e6)} kWh",
         ]
     )
     for cry, v in s.get("static_boiloff_L_per_day", {}).items():
-        rows.append([f"Static boil-off, {cry}", f"{litres(v)} L/day"])
+        rows.append([label("static_boiloff_L_per_day", cry), f"{litres(v)} L/day"])
     for cry, v in s.get("hold_time_h", {}).items():
-        rows.append([f"Hold time, {cry} (full to empty)", duration_h(v)])
+        rows.append([label("hold_time_h", cry), duration_h(v)])
     baths = (data.get("loads") or {}).get("baths", [])
     month: dict[str, list] = {}
     for b in baths:
@@ -60,10 +62,10 @@ def _summary(data: dict) -> list:
         text = f"{litres(order)} L" + (f", {money(cost, currency)}" if cost is not None else "")
         rows.append([f"Running {days:g} days, {cry}", text])
     if s.get("cooldown_time_h") is not None:
-        rows.append(["Cooldown time (cooler)", duration_h(s["cooldown_time_h"])])
+        rows.append([label("cooldown_time_h"), duration_h(s["cooldown_time_h"])])
     blocks = []
     if s.get("lowest_oxygen_percent") is not None:
-        rows.append(["Lowest oxygen, worst room case", f"{s['lowest_oxygen_percent']:.1f} %"])
+        rows.append([label("lowest_oxygen_percent"), f"{s['lowest_oxygen_percent']:.1f} %"])
     blocks = [Heading("Summary"), Table(["Figure", "Value"], rows, "ll", name="summary")]
     if s.get("lowest_oxygen_percent") is not None:
         from .cautions import DEFERRAL
