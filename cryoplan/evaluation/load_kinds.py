@@ -169,9 +169,14 @@ def conduction_heat(load, t_cold, t_warm, ctx: LoadContext, via=()) -> Flows:
             nodes = sorted(nodes, reverse=True)
     seg = v["length"] / (len(nodes) - 1)
     area = _cross_section(load)
-    flows = [
-        hl.conduction_load(integral, b, a, area, seg, v["count"]) for a, b in zip(nodes, nodes[1:])
-    ]
+    if ctx.static:
+        flows = [
+            hl.conduction_load(integral, b, a, area, seg, v["count"])
+            for a, b in zip(nodes, nodes[1:])
+        ]
+    else:  # the simulation's fast path: a tabulated integral is signed, K(a) - K(b)
+        g = v["count"] * area / seg
+        flows = [g * integral(b, a) for a, b in zip(nodes, nodes[1:])]
     out: Flows = []
     for k, name in enumerate(names):
         out.append((name, flows[k] - (flows[k + 1] if k + 1 < len(flows) else 0.0)))
