@@ -20,7 +20,11 @@ OXYGEN_DEFERRAL = (
 
 def summary_items(data: dict | None) -> list[tuple[str, list[tuple[str, str]]]]:
     """(group, [(label, value)]) of the strip: one group per cryogen, then the rest."""
+    from ...evaluation.summary import SUMMARY_FIELDS
     from ...report.document import duration_h, energy, litres, money, sig
+
+    def short(key: str) -> str:
+        return SUMMARY_FIELDS[key].short
 
     s = data.get("summary", {}) if data else {}
     groups: list[tuple[str, list[tuple[str, str]]]] = []
@@ -28,26 +32,31 @@ def summary_items(data: dict | None) -> list[tuple[str, list[tuple[str, str]]]]:
     for cry in cryogens:
         items = []
         if cry in s.get("order_L", {}):
-            items.append(("order", f"{litres(s['order_L'][cry])} L"))
+            items.append((short("order_L"), f"{litres(s['order_L'][cry])} L"))
         if cry in s.get("cost", {}):
-            items.append(("cost", money(s["cost"][cry], s.get("currency", ""))))
+            items.append((short("cost"), money(s["cost"][cry], s.get("currency", ""))))
         if cry in s.get("static_boiloff_L_per_day", {}):
-            items.append(("boil-off", f"{litres(s['static_boiloff_L_per_day'][cry])} L/day"))
+            items.append(
+                (
+                    short("static_boiloff_L_per_day"),
+                    f"{litres(s['static_boiloff_L_per_day'][cry])} L/day",
+                )
+            )
         if cry in s.get("hold_time_h", {}):
-            items.append(("hold", duration_h(s["hold_time_h"][cry])))
+            items.append((short("hold_time_h"), duration_h(s["hold_time_h"][cry])))
         groups.append((cry, items))
     rest = []
     if s.get("minimum_work_J") is not None:
         rest.append(
             (
-                "minimum work",
+                short("minimum_work_J"),
                 f"{energy(s['minimum_work_J'])} ({sig(s['minimum_work_J'] / 3.6e6)} kWh)",
             )
         )
     if s.get("cooldown_time_h") is not None:
-        rest.append(("cooldown (cooler)", duration_h(s["cooldown_time_h"])))
+        rest.append((short("cooldown_time_h"), duration_h(s["cooldown_time_h"])))
     if s.get("lowest_oxygen_percent") is not None:
-        rest.append(("lowest oxygen", f"{s['lowest_oxygen_percent']:.1f} %"))
+        rest.append((short("lowest_oxygen_percent"), f"{s['lowest_oxygen_percent']:.1f} %"))
     if rest:
         groups.append(("", rest))
     return groups
