@@ -657,12 +657,19 @@ def unit_name(name: str) -> tuple[float, tuple[tuple[str, Fraction], ...]]:
     if canonical is None:
         raise InputError(f"unknown unit {name!r}", found=repr(name))
     ureg = registry()
-    dims = ureg.get_dimensionality(canonical)
-    powers = tuple(sorted((str(k), Fraction(v).limit_denominator(1000)) for k, v in dims.items()))
-    if any(base not in _BASE for base, _ in powers):
+    try:
+        dims = ureg.get_dimensionality(canonical)
+        powers = tuple(
+            sorted((str(k), Fraction(v).limit_denominator(1000)) for k, v in dims.items())
+        )
+        if any(base not in _BASE for base, _ in powers):
+            raise ValueError("a dimension outside the SI base dimensions")
+        si = "*".join(f"{_BASE[b]}**{float(p)!r}" for b, p in powers) or "dimensionless"
+        factor = float(ureg.Quantity(1.0, canonical).m_as(si))
+    except Exception:  # pint refusing its own name (a prefixed offset unit): not a unit
+        raise InputError(f"unknown unit {name!r}", found=repr(name)) from None
+    if not (math.isfinite(factor) and factor > 0):
         raise InputError(f"unknown unit {name!r}", found=repr(name))
-    si = "*".join(f"{_BASE[b]}**{float(p)!r}" for b, p in powers) or "dimensionless"
-    factor = float(ureg.Quantity(1.0, canonical).m_as(si))
     return factor, powers
 
 
@@ -690,12 +697,15 @@ def _pint_offset(name: str) -> tuple[float, float] | None:
     if canonical is None:
         return None
     ureg = registry()
-    if dict(ureg.get_dimensionality(canonical)) != {"[temperature]": 1}:
+    try:
+        if dict(ureg.get_dimensionality(canonical)) != {"[temperature]": 1}:
+            return None
+        zero = float(ureg.Quantity(0.0, canonical).m_as("kelvin"))
+        factor = float(ureg.Quantity(1.0, canonical).m_as("kelvin")) - zero
+    except Exception:  # pint refusing its own name: left to unit_name to refuse
         return None
-    zero = float(ureg.Quantity(0.0, canonical).m_as("kelvin"))
-    if zero == 0.0:
+    if zero == 0.0 or not factor > 0:
         return None
-    factor = float(ureg.Quantity(1.0, canonical).m_as("kelvin")) - zero
     return factor, zero / factor
 
 
