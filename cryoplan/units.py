@@ -840,6 +840,8 @@ def _wrong_kind(text: str, shown: str, units: Units, dimension: str) -> str:
 
 
 def _article(dimension: str) -> str:
+    if dimension.startswith("per "):
+        return "something " + dimension
     return ("an " if dimension[0] in "aeiou" else "a ") + dimension
 
 
