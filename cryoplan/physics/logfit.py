@@ -34,6 +34,7 @@ __all__ = [
     "combine_rates",
     "fill_transfer_losses",
     "find_fills",
+    "find_rail_runs",
     "fit_boiloff",
     "fit_curve",
     "fit_level_interval",
@@ -160,6 +161,57 @@ def _height_to_volume(height, volume_per_length, calibration):
             found=f"heights {h.tolist()}, volumes {v.tolist()}",
         )
     return np.interp(height, h, v)
+
+
+def find_rail_runs(values, rails=(0.0,), threshold: float = 5.0) -> np.ndarray:
+    """Readings of a disconnected meter: runs of an exact rail value between jumps.
+
+    A meter whose sensor is unplugged, or whose cable breaks, reads exactly its bottom
+    (0) or top (100 %) until it is reconnected. A run of readings exactly equal to one of
+    ``rails`` is flagged when it is bordered on each side it has (the ends of the record
+    count as borders) by a jump larger than ``threshold``; a record that is all rail, and a
+    run reached smoothly (a bath boiled dry, a meter saturated at the top after a fill),
+    are not flagged.
+
+    Parameters
+    ----------
+    values : ndarray
+        The readings in time order, only valid ones, in the meter's own unit.
+    rails : tuple of float, optional
+        The values a disconnected meter reads (0; and 100 for a percentage).
+    threshold : float, optional
+        The smallest jump into and out of the run, in the readings' unit.
+
+    Returns
+    -------
+    ndarray of int
+        Indices of the flagged readings, increasing.
+
+    Notes
+    -----
+    Common practice for cleaning level records; the threshold should sit well above the
+    reading noise and below a fill's rise.
+
+    Examples
+    --------
+    >>> find_rail_runs(np.array([50.0, 49.9, 0.0, 0.0, 49.7, 49.6]), (0.0, 100.0), 5.0)
+    array([2, 3])
+    """
+    v = np.asarray(values, dtype=float)
+    rail = np.isin(v, np.asarray(rails, dtype=float))
+    if v.size < 2 or not rail.any() or rail.all():
+        return np.zeros(0, dtype=int)
+    change = np.flatnonzero(np.diff(v) != 0) + 1  # runs of one value
+    starts = np.concatenate(([0], change))
+    stops = np.concatenate((change, [v.size]))
+    keep = rail[starts]
+    flagged = []
+    for a, b in zip(starts[keep], stops[keep]):
+        before = a == 0 or abs(v[a - 1] - v[a]) > threshold
+        after = b == v.size or abs(v[b] - v[a]) > threshold
+        if before and after:
+            flagged.append(np.arange(a, b))
+    return np.concatenate(flagged) if flagged else np.zeros(0, dtype=int)
 
 
 # --- fills and intervals ---------------------------------------------------------------
