@@ -351,6 +351,10 @@ def _build_mapping(column: str, entry: dict, guess, where: dict) -> ColumnMappin
 # --- times --------------------------------------------------------------------------------
 
 
+def _is_data(line: str) -> bool:
+    return bool(line.strip()) and not line.lstrip().startswith("#")
+
+
 def _iso(cell: str):
     try:
         return datetime.fromisoformat(cell.strip())
@@ -360,18 +364,25 @@ def _iso(cell: str):
 
 def _parse_iso(cells) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """-> (seconds: UTC where aware, the written clock where naive; aware mask; ok mask)."""
-    dts = [_iso(c) if c and c.lstrip()[:1].isdigit() else None for c in cells]
-    n = len(dts)
-    ok = np.fromiter((d is not None for d in dts), bool, n)
-    aware = np.fromiter((d is not None and d.tzinfo is not None for d in dts), bool, n)
-    secs = np.fromiter(
-        (
-            np.nan if d is None else d.timestamp() if d.tzinfo else (d - _EPOCH).total_seconds()
-            for d in dts
-        ),
-        float,
-        n,
-    )
+    try:  # the usual log: every cell a date-time as written
+        dts = [datetime.fromisoformat(c) for c in cells]
+    except (ValueError, TypeError):
+        dts = [_iso(c) for c in cells]
+    ok = np.array([d is not None for d in dts], dtype=bool)
+    good = [d for d in dts if d is not None] if not ok.all() else dts
+    zones = {d.tzinfo for d in good}
+    if zones == {None}:
+        secs_good = [(d - _EPOCH).total_seconds() for d in good]
+        aware = np.zeros(ok.size, bool)
+    elif None not in zones:
+        secs_good = [d.timestamp() for d in good]
+        aware = ok.copy()
+    else:
+        secs_good = [d.timestamp() if d.tzinfo else (d - _EPOCH).total_seconds() for d in good]
+        aware = np.zeros(ok.size, bool)
+        aware[ok] = [d.tzinfo is not None for d in good]
+    secs = np.full(ok.size, np.nan)
+    secs[ok] = secs_good
     ok &= np.abs(np.nan_to_num(secs, nan=np.inf)) < _SPAN_S
     return secs, aware & ok, ok
 
@@ -410,7 +421,9 @@ def _localise(secs, naive, lines, zone, problems: _Problems) -> tuple[np.ndarray
     off0, off1 = _zone_offsets(clock, zone)
     offset = off0.copy()
     gap = off0 < off1  # fold 0 gives the offset before a forward jump: a skipped time
-    problems.add(lines[idx[gap]], R_NONEXISTENT, [f"{_hhmm(c)} not in {zone.key}" for c in clock[gap][:9]])
+    problems.add(
+        lines[idx[gap]], R_NONEXISTENT, [f"{_hhmm(c)} not in {zone.key}" for c in clock[gap][:9]]
+    )
     amb = np.flatnonzero(off0 > off1)  # the repeated hour
     for day in np.unique(np.floor(clock[amb] / 86400.0)):
         members = amb[np.floor(clock[amb] / 86400.0) == day]
@@ -451,18 +464,23 @@ def _start(start, zone, where: dict) -> tuple[datetime, float]:
 
 def _floats(cells) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """-> values (NaN where not a number), blank mask, unparseable mask."""
-    a = np.asarray(cells, dtype=str)
-    blank = a == ""
+    n = len(cells)
     try:
-        return np.where(blank, "nan", a).astype(float), blank, np.zeros(a.size, bool)
+        return np.array(cells, dtype=float), np.zeros(n, bool), np.zeros(n, bool)
     except ValueError:
         pass
-    values, bad = np.full(a.size, np.nan), np.zeros(a.size, bool)
+    blank = np.array([not c.strip() for c in cells], dtype=bool)
+    try:
+        values = np.array([c if c.strip() else "nan" for c in cells], dtype=float)
+        return values, blank, np.zeros(n, bool)
+    except ValueError:
+        pass
+    values, bad = np.full(n, np.nan), np.zeros(n, bool)
     for i, c in enumerate(cells):
         try:
             values[i] = float(c)
         except ValueError:
-            blank[i], bad[i] = not c.strip(), bool(c.strip())
+            bad[i] = not blank[i]
     return values, blank, bad
 
 
@@ -597,7 +615,7 @@ def read_log(
     path = os.fspath(path)
     lines = _read_lines(path, max_bytes, max_line)
     problems = _Problems(named)
-    data = [i for i, s in enumerate(lines) if s.strip() and not s.lstrip().startswith("#")]
+    data = [i for i, s in enumerate(lines) if s and (s[0] not in "# \t" or _is_data(s))]
     if not data:
         expected = "a header such as 'time,helium level [%]'"
         raise _fail("no header line", expected, "an empty log", file=path)
@@ -676,7 +694,8 @@ def read_log(
         naive = ok & ~aware
         if naive.any() and zone is not None:
             secs, exists = _localise(secs, naive, line_no, zone, problems)
-            ok, aware = ok & (exists | aware), ok & (exists | aware)
+            ok = ok & (exists | aware)
+            aware = ok.copy()
         elif naive.any() and aware.any():
             problems.add(line_no[naive], R_NO_ZONE, "give the log's time zone, or the offset")
             ok &= aware
@@ -707,7 +726,9 @@ def read_log(
     steps = np.diff(time)
     if steps.size and np.median(steps) > 0:
         gaps = np.flatnonzero(steps > gap_factor * np.median(steps))
-        texts = [f"no reading for {steps[g] / 3600:.3g} h after line {lines_kept[g]}" for g in gaps]
+        texts = [
+            f"no reading for {steps[g] / 3600:.3g} h after line {lines_kept[g]}" for g in gaps
+        ]
         problems.add(lines_kept[gaps + 1], R_GAP, texts)
     series = {m.column: _series(m, k, columns, header, kept, lines_kept, jump, problems)
               for m, k in zip(maps, kinds)}  # fmt: skip
