@@ -30,8 +30,10 @@ BUNDLED = REPO / "materials"
 @pytest.fixture(autouse=True)
 def _isolated_library(monkeypatch, tmp_path_factory):
     """Each test sees the bundled materials only (no user folder), and a fresh cache."""
+    # the folders are searched by cryoplan.data.library (the face only re-exports)
     monkeypatch.setattr(
-        library, "user_folder", lambda: tmp_path_factory.getbasetemp() / "no-user-folder"
+        "cryoplan.data.library.user_folder",
+        lambda: tmp_path_factory.getbasetemp() / "no-user-folder",
     )
     monkeypatch.delenv(library.ENV_VAR, raising=False)
     library.reload()
@@ -545,3 +547,48 @@ def test_mixture_with_unknown_component_is_reported(tmp_path, monkeypatch):
     assert "blend" not in library.material_ids()
     (p,) = library.library_problems()
     assert "copperr" in str(p) and "copper" in p.suggestions
+
+
+# ------------------------------------------------------------------ values through units.py
+
+
+@pytest.mark.parametrize(
+    "text, kind, value, molar",
+    [
+        # exact unit arithmetic (SI prefixes, 1 g/cm^3 = 1000 kg/m^3, 1 mJ = 1e-3 J)
+        ("8.96 g/cm^3", "density", 8960.0, False),
+        ("63.546 g/mol", "molar mass", 0.063546, False),
+        ("24.45 J/(mol K)", "specific heat", 24.45, True),
+        ("0.385 J/(g K)", "specific heat", 385.0, False),
+        ("0.695 mJ/(mol K^2)", "electronic coefficient", 0.695e-3, True),
+        ("2 mJ/(kg K^2)", "electronic coefficient", 2e-3, False),
+        ("1.55 uohm cm", "resistivity", 1.55e-8, False),
+        ("401 W/(m K)", "thermal conductivity", 401.0, False),
+    ],
+)
+def test_material_values_are_read_by_the_one_unit_parser(text, kind, value, molar):
+    from cryoplan.data.material_reader import parse_value
+
+    got, per_mole = parse_value(text, kind, {})
+    assert got == pytest.approx(value, rel=1e-12)  # exact factors: only rounding of products
+    assert per_mole is molar
+
+
+@pytest.mark.parametrize(
+    "text, kind, words",
+    [
+        ("1 W/(m K)", "specific heat", "not a heat capacity: 1 W/(m K) is a thermal conductivity"),
+        ("1 J/(kg K)", "electronic coefficient", "not an electronic (gamma) coefficient"),
+        ("2 mJ/(mol K^2) +- 1", "electronic coefficient", "spread"),  # named as written
+        ("1 mJ/(mol K^2", "electronic coefficient", "not closed"),
+        ("5 kg%", "density", "%"),  # issue 14 item 1: a percent sign stands alone
+        ("1e999 kg/m^3", "density", "too large"),
+    ],
+)
+def test_material_value_mistakes_in_plain_words(text, kind, words):
+    from cryoplan.data.material_reader import parse_value
+
+    with pytest.raises(InputError) as err:
+        parse_value(text, kind, {"file": "x.toml", "key": "k"})
+    assert words in err.value.message and err.value.found == repr(text)
+    assert " * mol" not in str(err.value) and "* K" not in str(err.value)  # no adapter text

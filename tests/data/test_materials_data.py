@@ -28,14 +28,16 @@ DATA = Path(__file__).resolve().parents[1] / "reference"
 
 @pytest.fixture(scope="module", autouse=True)
 def _bundled_only():
-    saved = library.user_folder
-    library.user_folder = lambda: REPO / "no-user-folder"
+    from cryoplan.data import library as folders  # where the folders are searched
+
+    saved = folders.user_folder
+    folders.user_folder = lambda: REPO / "no-user-folder"
     import os
 
     env = os.environ.pop(library.ENV_VAR, None)
     library.reload()
     yield
-    library.user_folder = saved
+    folders.user_folder = saved
     if env is not None:
         os.environ[library.ENV_VAR] = env
     library.reload()
