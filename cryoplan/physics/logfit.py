@@ -707,7 +707,7 @@ def heat_load_from_level_rate(rate, latent_heat, liquid_density):
 
     Examples
     --------
-    Helium at 1 atm (L = 20.56 kJ/kg, rho_l = 124.7 kg/m^3, CoolProp 6 values rounded):
+    Helium at 1 atm (L = 20.56 kJ/kg, rho_l = 124.7 kg/m^3, CoolProp values rounded):
     1 L/h of boil-off is about 0.71 W.
 
     >>> round(heat_load_from_level_rate(-1e-3 / 3600, 20.56e3, 124.7), 3)
@@ -745,7 +745,7 @@ def heat_load_from_vent_flow(mass_flow, latent_heat, liquid_density, vapor_densi
 
     Notes
     -----
-    For helium at 1 atm rho_v/rho_l = 16.9/124.7 = 0.136 (CoolProp 6 values rounded), so
+    For helium at 1 atm rho_v/rho_l = 16.9/124.7 = 0.136 (CoolProp values rounded), so
     the correction is 16 %; for nitrogen it is under 1 %.
 
     References
