@@ -76,7 +76,7 @@ def run(args) -> int:
                 expected="a pressure such as '120 kPa'",
                 found=repr(args.pressure),
             )
-    names = [fluids.canonical_name(n) for n in args.names] or fluids.cryogen_names()
+    names = [fluids.resolve_cryogen_name(n) for n in args.names] or fluids.cryogen_names()
     if args.warm:
         start = time.perf_counter()
         made = fluids.warm_cache([pressure], names=args.names or None)
