@@ -12,6 +12,7 @@ import math
 import os
 import subprocess
 import sys
+import time
 from pathlib import Path
 
 import numpy as np
@@ -21,7 +22,7 @@ from hypothesis import strategies as st
 from scipy.constants import R
 
 from cryoplan.cli import main
-from cryoplan.data import fluids
+from cryoplan.data import fluid_cache, fluids
 from cryoplan.errors import InputError, TemperatureError, UnknownNameError
 
 CP = pytest.importorskip("CoolProp.CoolProp")
@@ -87,6 +88,19 @@ def test_each_name_maps_to_the_coolprop_fluid_it_claims(name, coolprop_fluid):
 )  # fmt: skip
 def test_aliases(alias, name):
     assert fluids.cryogen(alias) is fluids.cryogen(name)
+
+
+def test_the_one_resolver_names_the_place_and_the_closest_names():
+    # every alias resolves to the name whose Cryogen cryogen() returns for it
+    for alias, name in fluids.CRYOGEN_ALIASES.items():
+        assert fluids.resolve_cryogen_name(alias.upper()) == name
+    assert fluids.canonical_name is fluids.resolve_cryogen_name  # the earlier name
+    with pytest.raises(UnknownNameError) as err:
+        fluids.resolve_cryogen_name("nitrogn", file="plan.toml", key="bath[0].cryogen")
+    assert err.value.suggestions[0] == "nitrogen"  # the closest first
+    assert err.value.file == "plan.toml" and err.value.key == "bath[0].cryogen"
+    with pytest.raises(UnknownNameError):
+        fluids.resolve_cryogen_name(["helium"])  # issue 14 item 4: a list is not a name
 
 
 # ---------------------------------------------------------------------- cache vs CoolProp
@@ -467,6 +481,116 @@ def test_corrupt_or_foreign_cache_file_is_rebuilt(fresh_cache):
     assert fluids.cryogen("argon").boiling_point == good.boiling_point
     leftovers = [p.name for p in path.parent.iterdir() if p.name.endswith(".tmp")]
     assert leftovers == []  # the atomic write left no temporary file
+
+
+# Issue 14 item 6: the cache is untrusted input. Argon at 1 atm is the victim throughout;
+# its live values come from CoolProp itself, the source the cache must reproduce.
+
+
+def _argon_file() -> Path:
+    fluids.cryogen("argon")
+    fluids.clear_cache(files=False)  # the next cryogen() reads the file again
+    fluid_cache._NOTED.clear()
+    return fluids.cache_dir() / "argon-101325Pa.json"
+
+
+def _notes(capsys) -> list[str]:
+    return [line for line in capsys.readouterr().err.splitlines() if "fluid cache" in line]
+
+
+def test_tampered_value_is_caught_by_the_checksum_and_rebuilt(fresh_cache, capsys):
+    path = _argon_file()
+    data = json.loads(path.read_text())
+    data["liquid_density"] *= 10  # a tenth of the litres, if it were believed
+    path.write_text(json.dumps(data))
+    c = fluids.cryogen("argon")
+    # CoolProp's saturated-liquid density of argon at 1 atm; 1e-9 as in the live test above
+    live = CP.PropsSI("D", "P", ATM, "Q", 0, "Argon")
+    assert c.liquid_density == pytest.approx(live, rel=1e-9)
+    (note,) = _notes(capsys)  # one line, naming the file and the reason
+    assert str(path) in note and "checksum" in note and "rebuilt" in note
+    assert json.loads(path.read_text())["liquid_density"] == pytest.approx(live, rel=1e-9)
+    fluids.clear_cache(files=False)
+    fluids.cryogen("argon")
+    assert _notes(capsys) == []  # the rebuilt file passes: no second note
+
+
+def test_truncated_and_non_json_files_are_rebuilt(fresh_cache, capsys):
+    path = _argon_file()
+    whole = path.read_bytes()
+    live = CP.PropsSI("T", "P", ATM, "Q", 0, "Argon")  # CoolProp's normal boiling point
+    for spoil in (
+        whole[: len(whole) // 2],
+        b"\x80\x04\x95 a pickle is never loaded",
+        b"[" * 10**5,
+    ):
+        path.write_bytes(spoil)
+        fluids.clear_cache(files=False)
+        fluid_cache._NOTED.clear()
+        assert fluids.cryogen("argon").boiling_point == pytest.approx(live, rel=1e-9)
+        (note,) = _notes(capsys)
+        assert "not valid JSON" in note
+        assert path.read_bytes() != spoil
+
+
+def test_other_coolprop_version_with_a_good_checksum_is_rebuilt(fresh_cache, capsys):
+    path = _argon_file()
+    data = json.loads(path.read_text())
+    data.pop("sha256")
+    data["coolprop"] = "0.0.1"
+    data["boiling_point"] = 1.0
+    data["sha256"] = fluid_cache.checksum(data)  # signed, but by another CoolProp
+    path.write_text(json.dumps(data))
+    assert fluids.cryogen("argon").boiling_point == pytest.approx(
+        CP.PropsSI("T", "P", ATM, "Q", 0, "Argon"), rel=1e-9
+    )
+    (note,) = _notes(capsys)
+    assert "'0.0.1'" in note and fluids.coolprop_version() in note
+
+
+def test_older_cache_format_is_rebuilt_quietly(fresh_cache, capsys):
+    path = _argon_file()
+    data = json.loads(path.read_text())
+    data["format"] = 1  # written by an earlier cryoplan, before the checksum
+    path.write_text(json.dumps(data))
+    fluids.cryogen("argon")
+    assert _notes(capsys) == []
+    assert json.loads(path.read_text())["format"] == fluids.CACHE_FORMAT
+
+
+@pytest.mark.skipif(not hasattr(os, "mkfifo"), reason="named pipes are POSIX")
+@pytest.mark.parametrize("planted", ["/dev/zero", "fifo", "victim"])
+def test_a_special_file_or_link_is_never_read_nor_written_through(
+    fresh_cache, tmp_path, capsys, planted
+):
+    path = _argon_file()
+    path.unlink()
+    victim = tmp_path / "victim.txt"
+    victim.write_text("keep me")
+    if planted == "fifo":
+        os.mkfifo(path)  # a reader of a pipe without a writer would wait for ever
+    else:
+        path.symlink_to("/dev/zero" if planted == "/dev/zero" else victim)
+    start = time.perf_counter()
+    assert fluid_cache.read(path, "argon", ATM, fluids.coolprop_version()) is None
+    assert time.perf_counter() - start < 1.0  # issue 14: nothing may hang it
+    (note,) = _notes(capsys)
+    assert "not a regular file" in note
+    c = fluids.cryogen("argon")
+    assert c.boiling_point == pytest.approx(CP.PropsSI("T", "P", ATM, "Q", 0, "Argon"), rel=1e-9)
+    assert path.is_file() and not path.is_symlink()  # the entry is replaced, not followed
+    assert victim.read_text() == "keep me"
+
+
+def test_an_oversized_file_is_not_read(fresh_cache, capsys):
+    path = _argon_file()
+    with open(path, "r+b") as fh:
+        fh.truncate(fluid_cache.MAX_BYTES + 1)  # sparse: no 16 MB written to the disk
+    start = time.perf_counter()
+    assert fluid_cache.read(path, "argon", ATM, fluids.coolprop_version()) is None
+    assert time.perf_counter() - start < 1.0
+    (note,) = _notes(capsys)
+    assert "larger than 16 MB" in note
 
 
 def test_unwritable_cache_dir_falls_back_to_memory(tmp_path, monkeypatch):
