@@ -522,6 +522,8 @@ def _columns(body: list[str], delimiter: str, ncol: int, keep_min: int):
     kept when the extra cells are blank (trailing delimiters), one with fewer when it has
     the time cell (trailing blanks left off); others do not fit.
     """
+    if not body:
+        return [[] for _ in range(ncol)], np.ones(0, bool), []
     if '"' in "".join(body):
         rows = [next(csv.reader([s], delimiter=delimiter), []) for s in body]
     else:
@@ -648,10 +650,11 @@ def read_log(
             found = ", ".join(repr(h) for h in header)
             found += f"; map {close[0]!r} as the time column?" if close else ""
             raise _fail("no time column", "a column headed 'time'", found, **where)
-        unit = _TIME_HEADER.match(time_column).group("unit")
-        time_unit = time_unit or (unit.strip() if unit else None)
     elif time_column not in header:
         raise UnknownNameError("column", time_column, header, **where, key="time column")
+    written = _TIME_HEADER.match(time_column)
+    if time_unit is None and written and written.group("unit"):
+        time_unit = written.group("unit").strip()
     zone = None
     if zone_name is not None:
         try:
@@ -715,7 +718,8 @@ def read_log(
         problems.add(line_no[kept[late]], R_ORDER, "earlier than a reading above it")
     order = np.argsort(stamp, kind="stable")
     kept, stamp = kept[order], stamp[order]
-    dup = np.concatenate(([False], stamp[1:] == stamp[:-1]))
+    dup = np.zeros(stamp.size, bool)
+    dup[1:] = stamp[1:] == stamp[:-1]
     problems.add(line_no[kept[dup]], R_DUPLICATE, "same time as an earlier reading")
     kept, stamp = kept[~dup], stamp[~dup]
     if kept.size == 0:
