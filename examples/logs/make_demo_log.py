@@ -20,7 +20,7 @@ The truth it carries:
 - faults put in on purpose: a disconnected meter reading exactly 0 % for three readings,
   one row written twice (a duplicate time), and one unparseable level cell ("ERR").
 
-Run from the repository: ``python examples/logs/make_demo_log.py`` (fixed seed: the same
+Run from the repository: ``python examples/logs/make_demo_log.py`` (a fixed random state: the same
 file every time). It prints the truth and what cryoplan's fit recovers from the file.
 """
 
@@ -40,7 +40,7 @@ import cryoplan  # noqa: E402
 
 PLAN = ROOT / "examples" / "demo-magnet-bath.toml"
 OUT = HERE / "demo-magnet-bath-helium.csv"
-SEED = 20270111
+RANDOM_STATE = 20270111
 SENSOR_CM = 50.0
 NOISE_PERCENT = 0.3
 DRIFT_PERCENT = 0.2
@@ -61,7 +61,7 @@ def make(path: Path = OUT) -> dict:
     boiloff_l_per_day = summary["static_boiloff_L_per_day"]["helium"]
     l_per_cm = volume_l / SENSOR_CM
     rate = boiloff_l_per_day / 86400.0  # L/s
-    rng = np.random.default_rng(SEED)
+    rng = np.random.default_rng(RANDOM_STATE)
 
     n = int(DAYS * 86400 / STEP_S)
     level = np.empty(n)

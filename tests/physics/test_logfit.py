@@ -1,6 +1,6 @@
 """Fits to a cryostat's record (cryoplan/physics/logfit.py), against known truths.
 
-The synthetic logs are made here with fixed seeds from a known heat load, transfer loss or
+The synthetic logs are made here with fixed random states from a known heat load, transfer loss or
 cooldown time constant; the fluid properties that turn a heat load into litres come from
 CoolProp through the project's fluid layer (``cryoplan.cryogen``), the outside reference.
 """
@@ -23,10 +23,10 @@ def helium():
     return cryoplan.cryogen("helium")
 
 
-def _bath_record(rate, noise, seed, days=30.0, step=600.0, fill_every=8.0, top=0.095):
+def _bath_record(rate, noise, state, days=30.0, step=600.0, fill_every=8.0, top=0.095):
     """Volume [m^3] of a bath boiling at ``rate`` [m^3/s], refilled to ``top`` every
     ``fill_every`` days over one hour (six readings), with normal reading noise."""
-    rng = np.random.default_rng(seed)
+    rng = np.random.default_rng(state)
     t = np.arange(0.0, days * DAY, step)
     phase = t % (fill_every * DAY)
     v = top - rate * phase
@@ -40,7 +40,7 @@ def test_heat_load_fitted_back_within_its_uncertainty(helium):
     # with L and rho_l from CoolProp (cryoplan.cryogen). 0.3 L noise, 10-min readings.
     q_true = 0.25
     rate = q_true / (helium.latent_heat * helium.liquid_density)
-    t, v = _bath_record(rate, 0.3e-3, seed=17)
+    t, v = _bath_record(rate, 0.3e-3, state=17)
     fit = logfit.fit_boiloff(t, v)
     assert len(fit.fills) == 3  # 30 days, a fill every 8 days
     q = logfit.heat_load_from_level_rate(fit.rate, helium.latent_heat, helium.liquid_density)
@@ -100,7 +100,7 @@ def test_transfer_loss_recovered_from_fills(helium):
     # need, over (1 - loss).
     rng = np.random.default_rng(5)
     rate = 0.3 / (helium.latent_heat * helium.liquid_density)
-    t, v = _bath_record(rate, 0.2e-3, seed=9, days=41.0)
+    t, v = _bath_record(rate, 0.2e-3, state=9, days=41.0)
     fit = logfit.fit_boiloff(t, v)
     assert len(fit.fills) == 5
     true_losses = 0.22 + rng.normal(0.0, 0.03, len(fit.fills))
